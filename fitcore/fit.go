@@ -74,6 +74,8 @@ type solver struct {
 	chol      mat.Cholesky
 	g, delta  *mat.VecDense
 	diag      []float64 // scaling D, the largest diag(JᵀWJ) seen
+	colScale  []float64
+	rVec      *mat.VecDense // a view of r
 	cost      float64
 	evals     int
 	jacEvals  int
@@ -208,7 +210,9 @@ func newSolver(p *Problem, settings *Settings) *solver {
 		g:        mat.NewVecDense(np, nil),
 		delta:    mat.NewVecDense(np, nil),
 		diag:     make([]float64, np),
+		colScale: make([]float64, np),
 	}
+	s.rVec = mat.NewVecDense(n, s.r)
 	if p.Weights != nil {
 		s.sw = make([]float64, n)
 		for i, w := range p.Weights {
@@ -294,17 +298,23 @@ func (s *solver) jacobian(atStart bool) error {
 	if s.p.Jacobian != nil {
 		copy(s.pScratch, s.pv)
 		s.p.Jacobian(s.jac, s.pScratch)
+		// Chain rule for log-space parameters (∂p/∂ln p = p) and the
+		// row weights √wᵢ.
 		for j := 0; j < s.np; j++ {
-			f := 1.0
+			s.colScale[j] = 1
 			if s.p.Params[j].Positive {
-				f = s.pv[j] // ∂p/∂ln p
+				s.colScale[j] = s.pv[j]
 			}
-			for i := 0; i < s.n; i++ {
-				v := s.jac.At(i, j) * f
-				if s.sw != nil {
-					v *= s.sw[i]
-				}
-				s.jac.Set(i, j, v)
+		}
+		raw := s.jac.RawMatrix()
+		for i := 0; i < s.n; i++ {
+			row := raw.Data[i*raw.Stride : i*raw.Stride+s.np]
+			w := 1.0
+			if s.sw != nil {
+				w = s.sw[i]
+			}
+			for j := range row {
+				row[j] *= s.colScale[j] * w
 			}
 		}
 	} else if err := s.finiteDifferences(); err != nil {
@@ -320,7 +330,7 @@ func (s *solver) jacobian(atStart bool) error {
 		}
 	}
 	s.a.SymOuterK(1, s.jac.T())
-	s.g.MulVec(s.jac.T(), mat.NewVecDense(s.n, s.r))
+	s.g.MulVec(s.jac.T(), s.rVec)
 	for j := 0; j < s.np; j++ {
 		d := s.a.At(j, j)
 		if atStart && d == 0 {
