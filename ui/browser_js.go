@@ -1,0 +1,83 @@
+//go:build js && wasm
+
+package ui
+
+import (
+	"sync/atomic"
+	"syscall/js"
+
+	"honnef.co/go/js/dom/v2"
+
+	"fieldfit/ui/store"
+	"fieldfit/ui/view"
+)
+
+// RunBrowser starts the app in the page: it renders into container, saves
+// to st (problem, if not nil, says why st is only a memory fallback), and
+// saves at once when the page is hidden. It returns at once; the app lives
+// on in the page's callbacks.
+func RunBrowser(container dom.Element, st store.Store, problem error) *App {
+	var root atomic.Pointer[view.Root]
+	app := NewApp(Options{
+		Store:        st,
+		StoreProblem: problem,
+		Changed: func() {
+			if r := root.Load(); r != nil {
+				r.Update()
+			}
+		},
+		Download: download,
+	})
+	r := view.Mount(container, app.Render, func(r *view.Root) {
+		r.OnPanic = app.Recovered
+		r.AfterRender = func() {
+			if id := app.TakeFocus(); id != "" {
+				r.Focus(id)
+			}
+		}
+	})
+	root.Store(r)
+	doc := dom.GetWindow().Document()
+	doc.AddEventListener("visibilitychange", false, func(dom.Event) {
+		defer recoverTo(app)
+		if doc.Underlying().Get("visibilityState").String() == "hidden" {
+			app.FlushSave()
+		}
+	})
+	dom.GetWindow().AddEventListener("pagehide", false, func(dom.Event) {
+		defer recoverTo(app)
+		app.FlushSave()
+	})
+	// The shell announces a downloaded release; save before the reload.
+	dom.GetWindow().AddEventListener("fieldfit:update-ready", false, func(dom.Event) {
+		defer recoverTo(app)
+		app.FlushSave()
+	})
+	app.Start()
+	return app
+}
+
+func recoverTo(a *App) {
+	if v := recover(); v != nil {
+		a.Recovered(v)
+	}
+}
+
+// download offers data as a file through a temporary object URL and an
+// <a download> link (dom offers no Blob, so syscall/js is used here).
+func download(filename, mime string, data []byte) {
+	arr := js.Global().Get("Uint8Array").New(len(data))
+	js.CopyBytesToJS(arr, data)
+	parts := js.Global().Get("Array").New(arr)
+	blob := js.Global().Get("Blob").New(parts, map[string]any{"type": mime})
+	url := js.Global().Get("URL").Call("createObjectURL", blob).String()
+	doc := dom.GetWindow().Document()
+	a := doc.CreateElement("a")
+	a.SetAttribute("href", url)
+	a.SetAttribute("download", filename)
+	a.SetAttribute("hidden", "")
+	doc.(dom.HTMLDocument).Body().AppendChild(a)
+	a.(dom.HTMLElement).Click()
+	a.ParentNode().RemoveChild(a)
+	dom.GetWindow().SetTimeout(func() { js.Global().Get("URL").Call("revokeObjectURL", url) }, 60000)
+}

@@ -1,0 +1,50 @@
+// Package ui holds the screens of Fieldfit: the project list, the site and
+// wells forms, the test form, the readings table and the fit step with its
+// results and plots, together with autosave to a store.Store.
+//
+// The logic of every screen is pure Go: App keeps the state, its methods
+// are the user's actions, and Render returns the screen as a view.Node
+// tree, so native tests drive the whole app without a browser. The files
+// behind the js && wasm build constraint only connect App to the page
+// (view.Mount) and to browser services such as file download.
+//
+// # Element ids for browser tests
+//
+// Stable ids and data attributes of the rendered page (user text never
+// appears in an id):
+//
+//	#app-root            the whole app
+//	#storage-status      storage problems (quota, blocked, unavailable); #export-current offers the download
+//	#notice              the last short notice (saved, pasted, deleted)
+//	#busy                progress text while storage or a fit runs
+//
+//	project list (#screen-list)
+//	#new-project         create a project
+//	#demo-project        the invented example project (offered while the list is empty)
+//	#project-list        the list; each item li[data-project-id=ID]
+//	  .project-name      its name (text)
+//	  [data-action=open|rename|duplicate|delete|export] its buttons
+//	#rename-input, #rename-save, #rename-cancel   inline rename
+//	#confirm-delete, #cancel-delete               delete confirmation
+//	#undo-delete         undo within the undo window
+//
+//	project (#screen-project)
+//	#back-to-list, #export-current
+//	#tab-site, #tab-wells, #tab-test, #tab-readings, #tab-fit   the sections
+//	#project-name, #project-site, #project-units (select si|us), #aquifer-b, #project-notes
+//	#add-pumping-well, #add-observation-well; each well div[data-well-id=ID][data-well-index=i]
+//	  inputs #well-i-name, #well-i-radius, #well-i-screen-top, #well-i-screen-bottom,
+//	  #well-i-mp, #well-i-distance; messages #well-i-FIELD-msg; #well-i-remove
+//	#test-select, #add-test, #test-name, #test-start (datetime-local), #test-rate,
+//	  #test-rate-unit, #test-static, #test-pumping-well, #test-obs-well, #test-time-mode
+//	  (elapsed-min|clock); messages #test-FIELD-msg
+//	#readings (table); rows tr[data-row=i]: #r-i-time, #r-i-depth (inputs),
+//	  #r-i-dd (drawdown text), #r-i-msg (messages, class "row-msg"); the last row is
+//	  always empty for the next reading
+//	#fit-model (select theis|cooper-jacob), #window-start, #window-end (min),
+//	  #window-clear, #auto-fit (checkbox), #smoothing, #fit, #fit-status
+//	#result-T, #result-S, #result-K (text "value unit (95 % CI lower – upper)",
+//	  attribute data-value = the value in the displayed unit, full precision),
+//	  #result-rmse, #result-iterations, #result-cj, #result-warnings, #caution
+//	#plot-loglog, #plot-semilog, #plot-residuals (svg)
+package ui
