@@ -99,17 +99,13 @@ func (s *solver) summary(res *Result) {
 			scaled.SetSym(j, k, v)
 		}
 	}
-	var es mat.EigenSym
-	if es.Factorize(scaled, true) {
-		vals := es.Values(nil)
+	if vals, minVec, ok := symEigen(scaled); ok {
 		lo, hi := vals[0], vals[len(vals)-1]
 		if lo > 0 {
 			res.Condition = hi / lo
 		}
 		if !(res.Condition <= s.set.IllConditioned) {
-			var vec mat.Dense
-			es.VectorsTo(&vec)
-			res.Warnings = append(res.Warnings, illConditioned(names, &vec, res.Condition))
+			res.Warnings = append(res.Warnings, illConditioned(names, minVec, res.Condition))
 		}
 	}
 	var chol mat.Cholesky
@@ -169,7 +165,7 @@ func (s *solver) summary(res *Result) {
 
 // illConditioned names the parameters that dominate the direction of
 // the smallest eigenvalue: the combination the data cannot resolve.
-func illConditioned(names []string, vec *mat.Dense, cond float64) string {
+func illConditioned(names []string, vec []float64, cond float64) string {
 	np := len(names)
 	type comp struct {
 		j int
@@ -177,7 +173,7 @@ func illConditioned(names []string, vec *mat.Dense, cond float64) string {
 	}
 	cs := make([]comp, np)
 	for j := 0; j < np; j++ {
-		cs[j] = comp{j, math.Abs(vec.At(j, 0))}
+		cs[j] = comp{j, math.Abs(vec[j])}
 	}
 	sort.Slice(cs, func(a, b int) bool { return cs[a].v > cs[b].v })
 	var which []string

@@ -16,7 +16,7 @@ import (
 // to st (problem, if not nil, says why st is only a memory fallback), and
 // saves at once when the page is hidden. It returns at once; the app lives
 // on in the page's callbacks.
-func RunBrowser(container dom.Element, st store.Store, problem error) *App {
+func RunBrowser(container js.Value, st store.Store, problem error) *App {
 	var root atomic.Pointer[view.Root]
 	app := NewApp(Options{
 		Store:        st,
@@ -64,20 +64,21 @@ func recoverTo(a *App) {
 }
 
 // download offers data as a file through a temporary object URL and an
-// <a download> link (dom offers no Blob, so syscall/js is used here).
+// <a download> link (dom offers no Blob, so syscall/js is used here, and
+// for the link too: see view.Root on dom's element wrappers).
 func download(filename, mime string, data []byte) {
 	arr := js.Global().Get("Uint8Array").New(len(data))
 	js.CopyBytesToJS(arr, data)
 	parts := js.Global().Get("Array").New(arr)
 	blob := js.Global().Get("Blob").New(parts, map[string]any{"type": mime})
 	url := js.Global().Get("URL").Call("createObjectURL", blob).String()
-	doc := dom.GetWindow().Document()
-	a := doc.CreateElement("a")
-	a.SetAttribute("href", url)
-	a.SetAttribute("download", filename)
-	a.SetAttribute("hidden", "")
-	doc.(dom.HTMLDocument).Body().AppendChild(a)
-	a.(dom.HTMLElement).Click()
-	a.ParentNode().RemoveChild(a)
+	doc := js.Global().Get("document")
+	a := doc.Call("createElement", "a")
+	a.Call("setAttribute", "href", url)
+	a.Call("setAttribute", "download", filename)
+	a.Call("setAttribute", "hidden", "")
+	doc.Get("body").Call("appendChild", a)
+	a.Call("click")
+	a.Call("remove")
 	dom.GetWindow().SetTimeout(func() { js.Global().Get("URL").Call("revokeObjectURL", url) }, 60000)
 }

@@ -8,9 +8,8 @@ package main
 
 import (
 	"context"
+	"syscall/js"
 	"time"
-
-	"honnef.co/go/js/dom/v2"
 
 	"fieldfit/ui"
 	"fieldfit/ui/store"
@@ -26,8 +25,8 @@ func main() {
 	if err != nil {
 		st = store.NewMemory()
 	}
-	container := dom.GetWindow().Document().GetElementByID("app")
-	if container == nil {
+	container := js.Global().Get("document").Call("getElementById", "app")
+	if !container.Truthy() {
 		panic("fieldfit: the page has no element with id \"app\"")
 	}
 	ui.RunBrowser(container, st, err)

@@ -293,3 +293,33 @@ func TestIndexedDB(t *testing.T) {
 	p.NoErrors()
 	p.NoForeignRequests(srv.URL)
 }
+
+// BenchmarkColdStart measures a start of the app with the service worker
+// warm: a reload, timed in the page from navigation start (performance.now)
+// to the moment the project list accepts a tap (#new-project is in the
+// document). The README records the figure; nothing asserts it.
+//
+//	go test ./web -run X -bench ColdStart -benchtime 10x
+func BenchmarkColdStart(b *testing.B) {
+	bun := webtest.App(b)
+	srv := webtest.Serve(b, bun)
+	p := webtest.Open(b)
+	p.Navigate(srv.URL + "/")
+	p.WaitRunning()
+	p.WaitFor(`navigator.serviceWorker.controller !== null && document.documentElement.dataset.sw === "ready"`,
+		"the service worker did not take control")
+	const ready = `new Promise(resolve => {
+		const done = () => document.getElementById("new-project") !== null;
+		if (done()) { resolve(performance.now()); return; }
+		new MutationObserver((_, obs) => { if (done()) { obs.disconnect(); resolve(performance.now()); } })
+			.observe(document.documentElement, {childList: true, subtree: true});
+	})`
+	total := 0.0
+	b.ResetTimer()
+	for b.Loop() {
+		p.Reload()
+		total += webtest.Eval[float64](p, ready)
+	}
+	b.ReportMetric(total/float64(b.N), "ms-to-list")
+	b.ReportMetric(0, "ns/op")
+}

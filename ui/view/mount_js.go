@@ -11,9 +11,15 @@ import (
 
 // Root keeps a container element in step with the trees that a render
 // function returns.
+//
+// The window-level services (timers) go through honnef.co/go/js/dom; the
+// nodes it creates and patches are plain js.Values. dom's element wrappers
+// switch over every HTML element type on each call, which both slows a
+// table re-rendered on each keystroke and links every element type's
+// methods into app.wasm (about a seventh of its code).
 type Root struct {
-	doc       dom.Document
-	container dom.Element
+	doc       js.Value
+	container js.Value
 	render    func() *Node
 	top       *mounted
 	pending   bool
@@ -30,7 +36,7 @@ type Root struct {
 type mounted struct {
 	n     *Node
 	ns    string
-	el    dom.Node
+	el    js.Value
 	kids  []*mounted
 	funcs map[string]js.Func
 }
@@ -38,8 +44,8 @@ type mounted struct {
 // Mount renders into container, after the children it already has, and
 // returns the Root; call Update to render again. OnPanic and AfterRender
 // may be set before the first render through opts.
-func Mount(container dom.Element, render func() *Node, opts ...func(*Root)) *Root {
-	r := &Root{doc: dom.GetWindow().Document(), container: container, render: render}
+func Mount(container js.Value, render func() *Node, opts ...func(*Root)) *Root {
+	r := &Root{doc: js.Global().Get("document"), container: container, render: render}
 	for _, o := range opts {
 		o(r)
 	}
@@ -73,11 +79,11 @@ func (r *Root) Flush() {
 	n := r.render()
 	if r.top == nil {
 		r.top = r.create(n, "")
-		r.container.AppendChild(r.top.el)
+		r.container.Call("appendChild", r.top.el)
 	} else if !r.sameKind(r.top, n, "") {
 		old := r.top
 		r.top = r.create(n, "")
-		r.container.ReplaceChild(r.top.el, old.el)
+		r.container.Call("replaceChild", r.top.el, old.el)
 		r.release(old)
 	} else {
 		r.patch(r.top, n)
@@ -90,11 +96,10 @@ func (r *Root) Flush() {
 // Focus moves the keyboard focus to the element with the given id and
 // selects its text, if it is an input.
 func (r *Root) Focus(id string) {
-	el := r.doc.GetElementByID(id)
-	if el == nil {
+	v := r.doc.Call("getElementById", id)
+	if !v.Truthy() {
 		return
 	}
-	v := el.Underlying()
 	v.Call("focus")
 	if v.Get("select").Type() == js.TypeFunction {
 		v.Call("select")
@@ -128,15 +133,15 @@ func (r *Root) sameKind(m *mounted, n *Node, parentNS string) bool {
 func (r *Root) create(n *Node, parentNS string) *mounted {
 	m := &mounted{n: &Node{Tag: n.Tag, Key: n.Key}}
 	if n.Tag == "" {
-		m.el = r.doc.CreateTextNode(n.Text)
+		m.el = r.doc.Call("createTextNode", n.Text)
 		m.n = n
 		return m
 	}
 	m.ns = nsFor(n, parentNS)
 	if m.ns == "" {
-		m.el = r.doc.CreateElement(n.Tag)
+		m.el = r.doc.Call("createElement", n.Tag)
 	} else {
-		m.el = r.doc.CreateElementNS(m.ns, n.Tag)
+		m.el = r.doc.Call("createElementNS", m.ns, n.Tag)
 	}
 	r.patch(m, n)
 	return m
@@ -149,20 +154,20 @@ func (r *Root) patch(m *mounted, n *Node) {
 	m.n = n
 	if n.Tag == "" {
 		if old.Text != n.Text {
-			m.el.SetTextContent(n.Text)
+			m.el.Set("textContent", n.Text)
 		}
 		return
 	}
-	el := m.el.(dom.Element)
+	el := m.el
 	for k := range old.Attrs {
 		if _, ok := n.Attrs[k]; !ok {
 			switch k {
 			case "value":
 				// leave the control's value as the user has it
 			case "checked":
-				el.Underlying().Set("checked", false)
+				el.Set("checked", false)
 			default:
-				el.RemoveAttribute(k)
+				el.Call("removeAttribute", k)
 			}
 		}
 	}
@@ -171,7 +176,7 @@ func (r *Root) patch(m *mounted, n *Node) {
 			continue
 		}
 		if ov, ok := old.Attrs[k]; !ok || ov != v {
-			el.SetAttribute(k, v)
+			el.Call("setAttribute", k, v)
 		}
 	}
 	// Children.
@@ -181,18 +186,18 @@ func (r *Root) patch(m *mounted, n *Node) {
 				r.release(k)
 			}
 			m.kids = nil
-			el.SetTextContent(n.Text)
+			el.Set("textContent", n.Text)
 		} else if old.Text != n.Text {
-			el.SetTextContent(n.Text)
+			el.Set("textContent", n.Text)
 		}
 	} else {
 		if len(m.kids) == 0 && old.Text != "" {
-			el.SetTextContent("")
+			el.Set("textContent", "")
 		}
 		r.patchChildren(m, n.Children)
 	}
 	// Properties after children, so that a select has its options.
-	u := el.Underlying()
+	u := el
 	if v, ok := n.Attrs["value"]; ok {
 		if u.Get("value").String() != v {
 			u.Set("value", v)
@@ -208,7 +213,8 @@ func (r *Root) patch(m *mounted, n *Node) {
 	// handler when it fires.
 	for typ, f := range m.funcs {
 		if n.On[typ] == nil {
-			m.el.RemoveEventListener(typ, false, f)
+			m.el.Call("removeEventListener", typ, f)
+			f.Release()
 			delete(m.funcs, typ)
 		}
 	}
@@ -219,7 +225,9 @@ func (r *Root) patch(m *mounted, n *Node) {
 		if m.funcs == nil {
 			m.funcs = map[string]js.Func{}
 		}
-		m.funcs[typ] = m.el.AddEventListener(typ, false, r.listener(m, typ))
+		f := r.listener(m, typ)
+		m.el.Call("addEventListener", typ, f)
+		m.funcs[typ] = f
 	}
 }
 
@@ -248,22 +256,20 @@ func (r *Root) patchChildren(m *mounted, kids []*Node) {
 		}
 	}
 	for _, om := range old {
-		parent.RemoveChild(om.el)
+		parent.Call("removeChild", om.el)
 		r.release(om)
 	}
 	// Put the children in order, from the end, unless they already are:
-	// the same elements in the same order as before. (Raw js values here:
-	// dom's wrappers look up the node's type on every call, which is too
-	// slow for a table re-rendered on each keystroke.)
+	// the same elements in the same order as before.
 	same := len(next) == len(m.kids)
 	for i := 0; same && i < len(next); i++ {
 		same = next[i] == m.kids[i]
 	}
 	if !same {
-		pv := parent.Underlying()
+		pv := parent
 		after := js.Null()
 		for i := len(next) - 1; i >= 0; i-- {
-			el := next[i].el.Underlying()
+			el := next[i].el
 			if !el.Get("parentNode").Equal(pv) || !el.Get("nextSibling").Equal(after) {
 				pv.Call("insertBefore", el, after)
 			}
@@ -276,7 +282,8 @@ func (r *Root) patchChildren(m *mounted, kids []*Node) {
 // release frees the listeners of m and its descendants.
 func (r *Root) release(m *mounted) {
 	for typ, f := range m.funcs {
-		m.el.RemoveEventListener(typ, false, f)
+		m.el.Call("removeEventListener", typ, f)
+		f.Release()
 	}
 	m.funcs = nil
 	for _, k := range m.kids {
@@ -284,20 +291,25 @@ func (r *Root) release(m *mounted) {
 	}
 }
 
-func (r *Root) listener(m *mounted, typ string) func(dom.Event) {
-	return func(ev dom.Event) {
+// listener returns the js.Func that m holds for events of type typ: it
+// does quick work only (the handler and a render); handlers start
+// goroutines for anything slow.
+func (r *Root) listener(m *mounted, typ string) js.Func {
+	return js.FuncOf(func(_ js.Value, args []js.Value) any {
 		defer r.recover(typ)
 		h := m.n.On[typ]
-		if h == nil {
-			return
+		if h == nil || len(args) == 0 {
+			return nil
 		}
-		e := readEvent(ev.Underlying(), typ)
+		ev := args[0]
+		e := readEvent(ev, typ)
 		h(e)
 		if e.Prevent {
-			ev.PreventDefault()
+			ev.Call("preventDefault")
 		}
 		r.Flush()
-	}
+		return nil
+	})
 }
 
 func readEvent(v js.Value, typ string) *Event {

@@ -435,9 +435,12 @@ func contentType(name string) string {
 	return "application/octet-stream"
 }
 
+// gzipBytes compresses data once, at build time, for every download. The
+// best compression costs about a second more on app.wasm than the default
+// and saves about 1.7 % of what each tablet downloads.
 func gzipBytes(data []byte) ([]byte, error) {
 	var buf bytes.Buffer
-	zw, err := gzip.NewWriterLevel(&buf, gzip.DefaultCompression)
+	zw, err := gzip.NewWriterLevel(&buf, gzip.BestCompression)
 	if err != nil {
 		return nil, err
 	}
