@@ -18,6 +18,19 @@
 // least-squares fits with their own results; CooperJacobLine also supplies
 // the starting guess for the Theis fit.
 //
+// Beyond the confined aquifer: Hantush is the Hantush–Jacob (1955) leaky
+// aquifer with its well function HantushW (and the Bessel functions K0,
+// K1 it needs); VariableRate superposes any model linear in the rate
+// (RateModel) over a schedule of rates, for step changes, stops and a
+// fit of drawdown and recovery together (PumpAndStop, JoinRecovery);
+// ImageWell adds one straight no-flow or constant-head boundary to a
+// Radial model by an image well, and BoundaryDerivativeRatio and
+// HantushDerivativeRatio give the log-derivative the diagnostics expect;
+// JacobCorrection corrects drawdowns in an unconfined aquifer. FitWells
+// fits one model jointly to several observation wells sharing its
+// parameters, and DistanceDrawdownLine is the Cooper–Jacob line in
+// distance at one time.
+//
 // Everything is in SI units: time in s, drawdown and distance in m, rate in
 // m³/s, transmissivity in m²/s. Package fieldfit/models/units converts at
 // the edges. E1, the exponential integral (the Theis well function),
