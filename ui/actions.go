@@ -17,7 +17,7 @@ func (a *App) SetTab(tab string) {
 	defer a.mu.Unlock()
 	switch tab {
 	case TabSite, TabWells:
-	case TabTest, TabReadings, TabFit:
+	case TabTest, TabReadings, TabFit, TabLogger:
 		if a.cur != nil && len(a.cur.Tests) == 0 {
 			a.addTestLocked()
 		}
@@ -253,6 +253,7 @@ func (a *App) SelectTest(i int) {
 	}
 	a.testIdx = i
 	a.fit = fitState{}
+	a.endImportLocked()
 	a.restorePlotLocked()
 }
 

@@ -63,6 +63,7 @@ const (
 	TabTest     = "test"
 	TabReadings = "readings"
 	TabFit      = "fit"
+	TabLogger   = "logger"
 )
 
 // ListItem is one project of the list.
@@ -109,6 +110,10 @@ type App struct {
 	removeArm string     // well ID whose remove button was pressed once
 
 	fit fitState
+
+	imp  *importState // a logger file being imported, nil when none
+	pick string       // "start" or "stop": the next tap on the raw plot sets it
+	cond condCache    // the last conditioned logger record
 }
 
 // NewApp returns an App on the given options; call Start to load the list.
@@ -333,6 +338,8 @@ func (a *App) openLocked(p *project.Project, tab string) {
 	a.testIdx = 0
 	a.removeArm = ""
 	a.fit = fitState{}
+	a.endImportLocked()
+	a.cond = condCache{}
 	a.notice = ""
 	a.restorePlotLocked()
 }
@@ -347,6 +354,8 @@ func (a *App) Back() {
 	}
 	a.cur = nil
 	a.fit = fitState{}
+	a.endImportLocked()
+	a.cond = condCache{}
 	a.screen = ListScreen
 	a.reloadListLocked()
 }

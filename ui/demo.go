@@ -82,7 +82,7 @@ func DemoProject(ctx context.Context, now time.Time, fit func(context.Context, F
 	}
 	p.Tests = []project.ConstantRateTest{t}
 	tt := &p.Tests[0]
-	req, missing := fitRequest(p, tt)
+	req, missing := fitRequest(p, tt, nil)
 	if len(missing) > 0 {
 		panic("ui: the example project is incomplete: " + missing[0])
 	}

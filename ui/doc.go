@@ -1,6 +1,7 @@
 // Package ui holds the screens of Fieldfit: the project list, the site and
 // wells forms, the test form, the readings table and the fit step with its
-// results and plots, together with autosave to a store.Store.
+// results and plots, the logger data tab (logger files imported,
+// conditioned into drawdown), together with autosave to a store.Store.
 //
 // The logic of every screen is pure Go: App keeps the state, its methods
 // are the user's actions, and Render returns the screen as a view.Node
@@ -30,7 +31,7 @@
 //
 //	project (#screen-project)
 //	#back-to-list, #export-current
-//	#tab-site, #tab-wells, #tab-test, #tab-readings, #tab-fit   the sections
+//	#tab-site, #tab-wells, #tab-test, #tab-readings, #tab-logger, #tab-fit   the sections
 //	#project-name, #project-site, #project-units (select si|us), #aquifer-b, #project-notes
 //	#add-pumping-well, #add-observation-well; each well div[data-well-id=ID][data-well-index=i]
 //	  inputs #well-i-name, #well-i-radius, #well-i-screen-top, #well-i-screen-bottom,
@@ -41,10 +42,40 @@
 //	#readings (table); rows tr[data-row=i]: #r-i-time, #r-i-depth (inputs),
 //	  #r-i-dd (drawdown text), #r-i-msg (messages, class "row-msg"); the last row is
 //	  always empty for the next reading
+//	#fit-source (select tape|logger, on the logger and fit tabs): the readings fitted
 //	#fit-model (select theis|cooper-jacob), #window-start, #window-end (min),
 //	  #window-clear, #auto-fit (checkbox), #smoothing, #fit, #fit-status
 //	#result-T, #result-S, #result-K (text "value unit (95 % CI lower – upper)",
 //	  attribute data-value = the value in the displayed unit, full precision),
 //	  #result-rmse, #result-iterations, #result-cj, #result-warnings, #caution
 //	#plot-loglog, #plot-semilog, #plot-residuals (svg)
+//
+//	logger data (#panel-logger)
+//	#card-water, #card-baro   the two records; in each:
+//	  #logger-file, #baro-file (input type=file)
+//	  #water-summary, #baro-summary (the record imported), #water-remove, #baro-remove,
+//	  details #water-bad, #baro-bad with table #water-bad-rows, #baro-bad-rows (skipped rows)
+//	#import-panel[data-phase=reading|preview|importing|bad-rows|failed]   the file on its way in
+//	  #import-status, #import-progress (progress, value 0–1), #import-cancel
+//	  #import-error      a file that is not delimited text: one sentence; #import-discard closes
+//	  #import-preview    the detected choices, each with its reason p#imp-why-NAME:
+//	    #imp-encoding, #imp-delimiter, #imp-decimal (selects), #imp-header-row, #imp-units-row,
+//	    #imp-data-row (line numbers), #imp-why-encoding|delimiter|decimal|rows;
+//	    #imp-preamble, #imp-sample (the start of the file), #imp-questions (what to decide),
+//	    #imp-date-question with #date-day-first, #date-month-first (dates that can be read both ways),
+//	    #imp-time-format (datetime|date+clock|elapsed), #imp-time-col, #imp-clock-col,
+//	    #imp-time-unit, #imp-date-order, #imp-zone (a UTC offset) with #imp-zone-device,
+//	    #imp-value-col, #imp-kind (depth|level|pressure), #imp-unit, #imp-density,
+//	    #imp-why-time|order|zone|value, #imp-options-msg, #imp-mapping-msg, #import-msg,
+//	    #imp-preview (the first readings converted), #import-start, #import-discard
+//	  #bad-rows (table: row, column, value, why; tr[data-bad-row=ROW]), #bad-skip, #bad-stop
+//	#cond-panel        the conditioning of the water record:
+//	  #cond-start, #cond-stop (text, with #cond-start-msg …), #pick-start, #pick-stop
+//	  (the next tap on #plot-raw sets it; #plot-raw[data-pick=start|stop] while armed),
+//	  #cond-static-mode (select mean|typed|none), #cond-static, #cond-baro (checkbox),
+//	  #cond-baro-shift (s), #cond-be, #cond-trend, #cond-thin (checkboxes), #cond-per-cycle,
+//	  #rates (table; rows tr[data-rate=i]: #rate-i-start (min), #rate-i-rate, #rate-i-unit,
+//	  #rate-i-remove, #rate-i-msg), #rate-add, #rates-msg,
+//	  #thin-count ("12 400 → 143 readings"), #cond-summary, #cond-notes, #cond-error,
+//	  #plot-raw, #plot-drawdown (svg)
 package ui

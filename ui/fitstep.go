@@ -44,18 +44,27 @@ func depthUnit(t *project.ConstantRateTest) units.Unit {
 }
 
 // fitRequest assembles the fit of test t of project p, or says in plain
-// sentences what is missing.
-func fitRequest(p *project.Project, t *project.ConstantRateTest) (FitRequest, []string) {
+// sentences what is missing. The readings are the tape readings of the
+// table, or the logger record conditioned by cond (conditionTest when
+// nil) when the test fits the logger record.
+func fitRequest(p *project.Project, t *project.ConstantRateTest, cond conditioner) (FitRequest, []string) {
 	var req FitRequest
 	var missing []string
 	req.Model = t.Fit.ModelOrDefault()
 	if q, ok := t.Rate.Value(); ok && q > 0 {
 		req.Q = q
-	} else {
-		missing = append(missing, "Enter the pumping rate (greater than zero) on the Test tab.")
 	}
-	if _, ok := t.StaticLevel.Value(); !ok {
+	if t.FitsLogger() {
+		missing = append(missing, loggerReadings(&req, t, cond)...)
+	} else if _, ok := t.StaticLevel.Value(); !ok {
 		missing = append(missing, "Enter the static water level on the Test tab.")
+	}
+	if !(req.Q > 0) {
+		where := "on the Test tab"
+		if t.FitsLogger() {
+			where += ", or as the first step of the rate schedule on the Logger data tab"
+		}
+		missing = append(missing, "Enter the pumping rate (greater than zero) "+where+".")
 	}
 	w := p.Well(t.ObservationWell)
 	switch {
@@ -74,8 +83,10 @@ func fitRequest(p *project.Project, t *project.ConstantRateTest) (FitRequest, []
 			missing = append(missing, fmt.Sprintf("Enter the distance of %s from the pumping well on the Wells tab.", quoteName(w.Name)))
 		}
 	}
-	checks := CheckReadings(t, depthUnit(t))
-	req.Time, req.Drawdown, _ = UsableReadings(t, checks)
+	if !t.FitsLogger() {
+		checks := CheckReadings(t, depthUnit(t))
+		req.Time, req.Drawdown, _ = UsableReadings(t, checks)
+	}
 	if len(req.Time) < 3 {
 		missing = append(missing, fmt.Sprintf("At least 3 usable readings are needed (%d so far).", len(req.Time)))
 	}
@@ -88,6 +99,12 @@ func fitRequest(p *project.Project, t *project.ConstantRateTest) (FitRequest, []
 	}
 	req.CJUMax = t.Fit.CJUMaxOrDefault()
 	return req, missing
+}
+
+// fitRequestLocked is fitRequest for the open project, with the app's
+// cache of the conditioned logger record.
+func (a *App) fitRequestLocked(t *project.ConstantRateTest) (FitRequest, []string) {
+	return fitRequest(a.cur, t, a.conditionedLocked)
 }
 
 func quoteName(s string) string {
@@ -117,7 +134,7 @@ func (a *App) runFitLocked() {
 		a.fit.again = true
 		return
 	}
-	req, missing := fitRequest(a.cur, t)
+	req, missing := a.fitRequestLocked(t)
 	if len(missing) > 0 {
 		a.fit.msg = strings.Join(missing, " ")
 		a.fit.out = nil

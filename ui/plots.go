@@ -28,7 +28,7 @@ type plotData struct {
 }
 
 func (a *App) plotData(p *project.Project, t *project.ConstantRateTest, d Display) *plotData {
-	req, _ := fitRequest(p, t)
+	req, _ := a.fitRequestLocked(t)
 	pd := &plotData{}
 	L := d.Length
 	for i := range req.Time {

@@ -206,7 +206,7 @@ func (a *App) renderListItem(it ListItem) *v.Node {
 // ---- project screen ----
 
 var tabs = []struct{ id, label string }{
-	{TabSite, "Site"}, {TabWells, "Wells"}, {TabTest, "Test"}, {TabReadings, "Readings"}, {TabFit, "Fit & plots"},
+	{TabSite, "Site"}, {TabWells, "Wells"}, {TabTest, "Test"}, {TabReadings, "Readings"}, {TabLogger, "Logger data"}, {TabFit, "Fit & plots"},
 }
 
 func (a *App) renderProject() *v.Node {
@@ -242,6 +242,8 @@ func (a *App) renderProject() *v.Node {
 		panel.Add(a.renderReadings())
 	case TabFit:
 		panel.Add(a.renderFit())
+	case TabLogger:
+		panel.Add(a.renderLogger())
 	default:
 		panel.Add(a.renderSite())
 	}
@@ -528,6 +530,7 @@ func (a *App) renderFit() *v.Node {
 	d := DisplayFor(p.Units)
 	div := v.El("div", nil, a.testSelector())
 	ctl := v.El("div", v.A("class", "ff-card ff-fitctl"))
+	ctl.Add(sourceSelect(a, t))
 	ctl.Add(selectField("fit-model", "Model", string(t.Fit.ModelOrDefault()), []option{
 		{string(project.Theis), "Theis (1935)"}, {string(project.CooperJacob), "Cooper–Jacob (1946) straight line"},
 	}, "", func(s string) { a.SetModel(project.Model(s)) }))
@@ -570,7 +573,7 @@ func (a *App) fitStatus(t *project.ConstantRateTest) string {
 	case t.Result == nil:
 		return "Not fitted yet."
 	}
-	req, missing := fitRequest(a.cur, t)
+	req, missing := a.fitRequestLocked(t)
 	if len(missing) == 0 && req.Fingerprint() != t.Result.Inputs {
 		if t.Fit.Manual {
 			return "The readings or settings changed since this fit: press Fit to update."

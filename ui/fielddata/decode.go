@@ -5,10 +5,6 @@ import (
 	"fmt"
 	"io"
 	"unicode/utf8"
-
-	"golang.org/x/text/encoding/charmap"
-	"golang.org/x/text/encoding/unicode"
-	"golang.org/x/text/transform"
 )
 
 // magic lists the starts of common files that are not text, with what to
@@ -116,44 +112,24 @@ func decodeBytes(b []byte, enc Encoding) []byte {
 	switch enc {
 	case UTF16LE, UTF16BE:
 		b = b[:len(b)&^1]
-		out, _, err := transform.Bytes(utf16Decoder(enc), b)
-		if err != nil {
-			return nil
-		}
+		first, le := true, enc == UTF16LE
+		out, _ := decodeChunk(make([]byte, 0, len(b)+len(b)/2), b, enc, true, &first, &le)
 		return bytes.TrimPrefix(out, []byte("\uFEFF"))
 	case Latin1, Windows1252:
-		out, _, err := transform.Bytes(charmapDecoder(enc), b)
-		if err != nil {
-			return nil
-		}
+		first, le := false, false
+		out, _ := decodeChunk(make([]byte, 0, len(b)+len(b)/4), b, enc, true, &first, &le)
 		return out
 	}
 	return bytes.TrimPrefix(cutIncompleteRune(b), []byte{0xEF, 0xBB, 0xBF})
 }
 
-func utf16Decoder(enc Encoding) transform.Transformer {
-	order := unicode.LittleEndian
-	if enc == UTF16BE {
-		order = unicode.BigEndian
-	}
-	return unicode.UTF16(order, unicode.UseBOM).NewDecoder()
-}
-
-func charmapDecoder(enc Encoding) transform.Transformer {
-	if enc == Windows1252 {
-		return charmap.Windows1252.NewDecoder()
-	}
-	return charmap.ISO8859_1.NewDecoder()
-}
-
-// decodeReader returns a reader of the UTF-8 text of r in enc. A byte
-// order mark is left for the line reader to drop.
+// decodeReader returns a reader of the UTF-8 text of r in enc. A UTF-8
+// byte order mark is left for the line reader to drop; a UTF-16 one is
+// dropped here.
 func decodeReader(r io.Reader, enc Encoding) io.Reader {
 	switch enc {
-	case UTF16LE, UTF16BE:
-		return transform.NewReader(r, utf16Decoder(enc))
-	case Latin1, Windows1252:
-		return transform.NewReader(r, charmapDecoder(enc))
+	case UTF16LE, UTF16BE, Latin1, Windows1252:
+		return newTextReader(r, enc)
 	}
 	return r
 }

@@ -34,9 +34,11 @@
 //
 // Import reads the whole file in a goroutine of the screen, with a
 // context for cancelling and ImportSettings.Progress for the progress bar.
-// Times become seconds — Unix seconds (UTC) for clock times, on what the
-// package calls the record's time axis, or the file's elapsed seconds —
-// and values metres: depth and level by their length unit, pressure as
+// Clock times without an offset are read in Mapping.Time.Zone, a fixed
+// UTC offset (or an IANA zone name when LoadZone is set; the browser app
+// has no zone database). Times become seconds — Unix seconds (UTC) for
+// clock times, on what the package calls the record's time axis, or the
+// file's elapsed seconds — and values metres: depth and level by their length unit, pressure as
 // the head of water h = p/(ρ·gn), with ρ = Mapping.Density (999.97 kg/m³
 // by default) and gn = 9.80665 m/s² (package units, reference §9). The
 // columns are plain []float64. Rows that cannot be read are counted and

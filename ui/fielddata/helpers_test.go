@@ -7,7 +7,12 @@ import (
 	"os"
 	"path/filepath"
 	"testing"
+	"time"
 )
+
+// The native tests read zone names from the system's zone database; the
+// browser app does not (see LoadZone).
+func init() { LoadZone = time.LoadLocation }
 
 // fixture reads a file of testdata/fielddata (written by make_fixtures.py).
 func fixture(t testing.TB, name string) []byte {

@@ -70,10 +70,10 @@ type TimeColumns struct {
 	Unit string `json:"unit,omitempty"`
 	// Zone is the time zone of clock times written without an offset:
 	// "" (UTC), a fixed offset such as "+02:00", or an IANA name such as
-	// "Europe/Berlin" (daylight-saving changes applied; in the hour that
-	// repeats when clocks go back, the earlier reading is assumed; the
-	// browser build must import time/tzdata for names). Times written
-	// with Z or an offset keep their own.
+	// "Europe/Berlin" when LoadZone is set (daylight-saving changes
+	// applied; in the hour that repeats when clocks go back, the earlier
+	// reading is assumed). Times written with Z or an offset keep their
+	// own.
 	Zone string `json:"zone,omitempty"`
 }
 

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"math"
 	"strconv"
+	"strings"
 	"testing"
 	"time"
 	_ "time/tzdata" // the zone names of the tests, whatever the machine has
@@ -224,5 +225,24 @@ func TestTimeAxisHelpers(t *testing.T) {
 	}
 	if got := FormatTime(90, false); got != "90 s" {
 		t.Errorf("FormatTime = %q", got)
+	}
+}
+
+// TestZoneNamesNeedLoadZone: without LoadZone (as in the browser app) a
+// zone name is refused with a sentence pointing to UTC offsets, and
+// offsets still work.
+func TestZoneNamesNeedLoadZone(t *testing.T) {
+	saved := LoadZone
+	LoadZone = nil
+	defer func() { LoadZone = saved }()
+	if _, err := parseZone("Europe/Berlin"); err == nil || !strings.Contains(err.Error(), "use a UTC offset") {
+		t.Errorf("Europe/Berlin without LoadZone: %v", err)
+	}
+	m := Mapping{Time: TimeColumns{Zone: "Europe/Berlin"}, Values: []ValueColumn{{Column: 1, Kind: Level, Unit: "m"}}}
+	if err := m.Check(0); !errors.Is(err, ErrMapping) {
+		t.Errorf("Mapping.Check with a zone name and no LoadZone: %v", err)
+	}
+	if z, err := parseZone("UTC+02:00"); err != nil || z.off != 7200 {
+		t.Errorf("UTC+02:00: %+v, %v", z, err)
 	}
 }

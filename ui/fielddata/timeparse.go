@@ -27,10 +27,17 @@ type zoneRule struct {
 	off int64          // seconds east of UTC
 }
 
+// LoadZone, when not nil, finds the zone of an IANA name such as
+// "Europe/Berlin" given as TimeColumns.Zone; nil (the default) accepts
+// fixed UTC offsets only. A program with a zone database may set it to
+// time.LoadLocation (the native tests do). The browser app leaves it
+// nil: time/tzdata would add about 450 kB to app.wasm, and
+// time.LoadLocation alone links the code that reads zone files.
+var LoadZone func(name string) (*time.Location, error)
+
 // parseZone reads a time zone setting: "" or "UTC" or "Z" (UTC), a fixed
-// offset ("+02:00", "-0530", "UTC+2") or an IANA name ("Europe/Berlin").
-// Names need the time zone database; the browser build must import
-// time/tzdata for them.
+// offset ("+02:00", "-0530", "UTC+2") or, with LoadZone, an IANA name
+// ("Europe/Berlin").
 func parseZone(s string) (zoneRule, error) {
 	s = strings.TrimSpace(s)
 	switch strings.ToUpper(s) {
@@ -47,8 +54,11 @@ func parseZone(s string) (zoneRule, error) {
 		}
 		return zoneRule{}, fmt.Errorf("%q is not a UTC offset such as +02:00", s)
 	}
-	loc, err := time.LoadLocation(s)
-	if err != nil {
+	if LoadZone == nil {
+		return zoneRule{}, fmt.Errorf("time zone names such as %q are not known here: use a UTC offset such as +02:00", s)
+	}
+	loc, err := LoadZone(s)
+	if err != nil || loc == nil {
 		return zoneRule{}, fmt.Errorf("unknown time zone %q (use an offset such as +02:00, or a name such as Europe/Berlin)", s)
 	}
 	return zoneRule{loc: loc}, nil

@@ -2,16 +2,23 @@ package project
 
 import (
 	"bytes"
+	"encoding/base64"
 	"encoding/json"
 	"errors"
 	"fmt"
+	"math"
+	"math/rand/v2"
+	"strconv"
 )
 
 // Format is the value of the "format" field of every project file.
 const Format = "fieldfit-project"
 
 // Version is the version of the project file format this package writes.
-const Version = 1
+//
+// Version 2 added the logger records of a test (ConstantRateTest.Logger)
+// and the choice of the readings fitted (ConstantRateTest.Source).
+const Version = 2
 
 // Sentinel errors wrapped by *DecodeError.
 var (
@@ -62,18 +69,124 @@ type Migration struct {
 	Upgrade func(project map[string]any) error
 }
 
-// migrations upgrade old files, one version at a time. Version 1 is the
-// first; when version 2 arrives its upgrade is appended here as
-// {From: 1, Upgrade: ...}.
-var migrations []Migration
+// migrations upgrade old files, one version at a time.
+var migrations = []Migration{
+	{From: 1, Upgrade: upgrade1},
+}
+
+// upgrade1 upgrades a version 1 project: its tests had only the readings
+// table, so each is marked as fitting the tape readings ("source":
+// "tape"); they have no logger records.
+func upgrade1(p map[string]any) error {
+	tests, ok := p["tests"]
+	if !ok || tests == nil {
+		return nil
+	}
+	list, ok := tests.([]any)
+	if !ok {
+		return fmt.Errorf("tests is not a list")
+	}
+	for i, t := range list {
+		m, ok := t.(map[string]any)
+		if !ok {
+			return fmt.Errorf("test %d is not an object", i+1)
+		}
+		if _, has := m["logger"]; has {
+			return fmt.Errorf("test %d has logger records, which version 1 did not know", i+1)
+		}
+		m["source"] = string(FromTape)
+	}
+	return nil
+}
 
 // Marshal encodes p as a project file of the current Version.
+//
+// The readings of logger records are written as base64 text (see
+// Samples) spliced into the JSON after encoding: encoding/json would
+// otherwise scan each of those strings three times (checking, compacting
+// and indenting), which for a million readings took most of a second on
+// every autosave.
 func Marshal(p *Project) ([]byte, error) {
-	body, err := json.Marshal(p)
+	q, cols := detachSamples(p)
+	body, err := json.MarshalIndent(q, " ", " ")
 	if err != nil {
 		return nil, fmt.Errorf("project %q: %w", p.ID, err)
 	}
-	return json.MarshalIndent(envelope{Format: Format, Version: Version, Project: body}, "", " ")
+	size := len(body) + 64
+	for _, c := range cols {
+		size += base64.StdEncoding.EncodedLen(8*len(c)) + 2
+	}
+	out := make([]byte, 0, size)
+	out = append(out, "{\n \"format\": \""+Format+"\",\n \"version\": "+strconv.Itoa(Version)+",\n \"project\": "...)
+	rest := body
+	for i, c := range cols {
+		tok := []byte(spliceToken(i))
+		k := bytes.Index(rest, tok)
+		if k < 0 {
+			return nil, fmt.Errorf("project %q: logger readings %d were not written", p.ID, i)
+		}
+		out = append(out, rest[:k]...)
+		b, _ := c.MarshalJSON()
+		out = append(out, b...)
+		rest = rest[k+len(tok):]
+	}
+	out = append(out, rest...)
+	return append(out, "\n}"...), nil
+}
+
+// spliceNonce makes the placeholders of Marshal unlike any text a user
+// can type.
+var spliceNonce = strconv.FormatUint(rand.Uint64(), 36)
+
+// spliceMark marks a placeholder Samples: a NaN whose payload holds the
+// index of the column it stands for.
+const spliceMark = 0x7FF8_5A3C_0000_0000
+
+func spliceToken(i int) string { return `"@readings:` + spliceNonce + ":" + strconv.Itoa(i) + `@"` }
+
+// spliceIndex returns the column index of a placeholder, or -1.
+func (s Samples) spliceIndex() int {
+	if len(s) != 1 {
+		return -1
+	}
+	if b := math.Float64bits(s[0]); b&^0xFFFF_FFFF == spliceMark {
+		return int(b & 0xFFFF_FFFF)
+	}
+	return -1
+}
+
+// detachSamples returns p, or a copy of it whose logger readings are
+// placeholders, with the columns they stand for in order.
+func detachSamples(p *Project) (*Project, []Samples) {
+	var cols []Samples
+	q := p
+	for i := range p.Tests {
+		lg := p.Tests[i].Logger
+		if lg == nil || (lg.Water == nil && lg.Baro == nil) {
+			continue
+		}
+		if q == p {
+			c := *p
+			c.Tests = append([]ConstantRateTest(nil), p.Tests...)
+			q = &c
+		}
+		l2 := *lg
+		for _, rp := range []**LoggerRecord{&l2.Water, &l2.Baro} {
+			if *rp == nil {
+				continue
+			}
+			r2 := **rp
+			for _, col := range []*Samples{&r2.Time, &r2.Value} {
+				if len(*col) > 0 {
+					cols = append(cols, *col)
+					*col = Samples{math.Float64frombits(spliceMark | uint64(len(cols)-1))}
+				}
+			}
+			*rp = &r2
+		}
+		q.Tests[i].Logger = &l2
+	}
+	return q, cols
 }
 
 // Unmarshal decodes a project file of this or an older version.
@@ -176,6 +289,23 @@ func (p *Project) check() error {
 		}
 		if t.Readings == nil {
 			t.Readings = []Reading{}
+		}
+		switch t.Source {
+		case "", FromTape, FromLogger:
+		default:
+			return fmt.Errorf("%w: test %d (%q) fits readings from %q, neither %q nor %q", ErrInvalid, i+1, t.Name, t.Source, FromTape, FromLogger)
+		}
+		if lg := t.Logger; lg != nil {
+			if lg.Water != nil {
+				if err := lg.Water.check("water-level"); err != nil {
+					return fmt.Errorf("test %d (%q): %w", i+1, t.Name, err)
+				}
+			}
+			if lg.Baro != nil {
+				if err := lg.Baro.check("barometric"); err != nil {
+					return fmt.Errorf("test %d (%q): %w", i+1, t.Name, err)
+				}
+			}
 		}
 	}
 	return nil

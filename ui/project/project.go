@@ -1,8 +1,8 @@
 package project
 
 import (
-	"crypto/rand"
 	"encoding/hex"
+	"math/rand/v2"
 	"time"
 )
 
@@ -146,7 +146,16 @@ type ConstantRateTest struct {
 	Fit      FitSettings `json:"fit"`
 	// Result is the last fit, nil before the first.
 	Result *FitResult `json:"result,omitempty"`
+	// Source says which readings the fit uses: the table above (FromTape,
+	// also when empty) or the logger record (FromLogger).
+	Source Source `json:"source,omitempty"`
+	// Logger holds the imported logger records and their conditioning;
+	// nil before the first import.
+	Logger *LoggerData `json:"logger,omitempty"`
 }
+
+// FitsLogger reports whether the fit uses the logger record.
+func (t *ConstantRateTest) FitsLogger() bool { return t.Source == FromLogger }
 
 // Reading is one row of the readings table: when, and the depth to water.
 // TimeText and DepthText are exactly what was typed. Elapsed (s) and Depth
@@ -259,12 +268,16 @@ type FitResult struct {
 }
 
 // NewID returns a new random identifier: 16 hexadecimal digits from
-// crypto/rand.
+// math/rand/v2's global generator (ChaCha8, seeded by the runtime from
+// the system's random source: in the browser crypto.getRandomValues).
+// An identifier needs to be unique, not secret; crypto/rand would add
+// its whole FIPS 140 module (about 40 kB gzipped) to app.wasm.
 func NewID() string {
 	var b [8]byte
-	// crypto/rand.Read never returns an error on the supported
-	// platforms (Go 1.24 and later); it crashes the program instead.
-	_, _ = rand.Read(b[:])
+	u := rand.Uint64()
+	for i := range b {
+		b[i] = byte(u >> (8 * i))
+	}
 	return hex.EncodeToString(b[:])
 }
 
@@ -331,6 +344,7 @@ func (p *Project) Clone() *Project {
 			r.Warnings = append([]string(nil), t.Result.Warnings...)
 			t.Result = &r
 		}
+		t.Logger = t.Logger.clone()
 		q.Tests[i] = t
 	}
 	return &q

@@ -2,6 +2,7 @@ package project
 
 import (
 	"errors"
+	"fmt"
 	"reflect"
 	"regexp"
 	"strings"
@@ -51,7 +52,7 @@ func TestRoundTrip(t *testing.T) {
 	if !reflect.DeepEqual(p, q) {
 		t.Errorf("round trip changed the project:\n got %+v\nwant %+v", q, p)
 	}
-	if !strings.Contains(string(data), `"format": "fieldfit-project"`) || !strings.Contains(string(data), `"version": 1`) {
+	if !strings.Contains(string(data), `"format": "fieldfit-project"`) || !strings.Contains(string(data), fmt.Sprintf(`"version": %d`, Version)) {
 		t.Errorf("envelope missing format or version:\n%s", data)
 	}
 }

@@ -342,6 +342,15 @@ func readEvent(v js.Value, typ string) *Event {
 			}
 		}
 	}
+	if typ == "change" {
+		if t := v.Get("target"); t.Truthy() && t.Get("type").String() == "file" {
+			if fs := t.Get("files"); fs.Truthy() {
+				for i := 0; i < fs.Get("length").Int(); i++ {
+					e.Files = append(e.Files, jsFile{fs.Index(i)})
+				}
+			}
+		}
+	}
 	if typ == "paste" {
 		if cd := v.Get("clipboardData"); cd.Truthy() {
 			e.Pasted = cd.Call("getData", "text/plain").String()
