@@ -10,6 +10,7 @@ package ui
 import (
 	"fmt"
 	"math"
+	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -182,4 +183,50 @@ func TestBrowserLoggerFiles(t *testing.T) {
 	p.NoErrors()
 	p.NoForeignRequests(origin)
 	t.Logf("logger browser test: %.1f s", time.Since(start).Seconds())
+}
+
+// BenchmarkBrowserImport1M times the import of a 1 000 000-row logger file
+// (elapsed seconds, depth to water; about 17 MB) through the page: from
+// the click on the import button to the record's summary, in the real
+// app in headless Chromium. The README records the figure; nothing
+// asserts it.
+//
+//	go test ./ui -run X -bench BrowserImport1M -benchtime 3x
+func BenchmarkBrowserImport1M(b *testing.B) {
+	webtest.RequireChromium(b)
+	path := filepath.Join(b.TempDir(), "million.csv")
+	var sb strings.Builder
+	sb.WriteString("# Larkspur Flats, well LF-OB1, a long record\nElapsed time (s),Depth to water (m)\n")
+	for i := 0; i < 1_000_000; i++ {
+		s := 0.8 * math.Log10(1+float64(i)/60)
+		sb.WriteString(strconv.Itoa(i))
+		sb.WriteByte(',')
+		sb.WriteString(strconv.FormatFloat(8+s, 'f', 4, 64))
+		sb.WriteByte('\n')
+	}
+	if err := os.WriteFile(path, []byte(sb.String()), 0o644); err != nil {
+		b.Fatal(err)
+	}
+	srv := webtest.Serve(b, webtest.App(b))
+	p := webtest.Open(b)
+	p.Navigate(srv.URL + "/")
+	p.WaitRunning()
+	p.WaitFor(`!!document.getElementById("new-project")`, "the project list")
+	click := func(id string) { p.Do(chromedp.WaitVisible(chromedp.ID(id)), chromedp.Click(chromedp.ID(id))) }
+	var total time.Duration
+	for i := 0; b.Loop(); i++ {
+		if i > 0 {
+			click("back-to-list")
+		}
+		click("new-project")
+		click("tab-logger")
+		p.Do(chromedp.SetUploadFiles(chromedp.ID("logger-file"), []string{path}))
+		p.WaitFor(`!!document.getElementById("import-start")`, "the preview")
+		webtest.Eval[bool](p, `(window.__t0 = performance.now(), true)`)
+		click("import-start")
+		p.WaitFor(`/1\D?000\D?000 readings/.test((document.getElementById("water-summary") || {textContent: ""}).textContent)`, "the imported record")
+		total += time.Duration(webtest.Eval[float64](p, `performance.now() - window.__t0`) * float64(time.Millisecond))
+	}
+	b.ReportMetric(total.Seconds()/float64(b.N), "s-to-record")
+	b.ReportMetric(0, "ns/op")
 }
