@@ -33,43 +33,9 @@ func TestBrowserFieldSession(t *testing.T) {
 	origin := srv.URL
 	p := webtest.Open(t)
 
-	run := func(steps ...chromedp.Action[chromedp.Void]) {
-		t.Helper()
-		p.Do(steps...)
-	}
-	eval := func(expr string) string {
-		t.Helper()
-		return webtest.Eval[string](p, expr)
-	}
-	// set types text into an input the way a user does: focus, select
-	// what is there, type over it.
-	set := func(id, text string) {
-		t.Helper()
-		run(chromedp.WaitVisible(chromedp.ID(id)),
-			chromedp.Evaluate[chromedp.Void](fmt.Sprintf(`(() => { const e = document.getElementById(%q); e.focus(); e.select(); })()`, id)),
-			chromedp.SendKeys(chromedp.ID(id), text))
-	}
-	choose := func(id, value string) {
-		t.Helper()
-		run(chromedp.WaitVisible(chromedp.ID(id)), chromedp.SetValue(chromedp.ID(id), value),
-			chromedp.Evaluate[chromedp.Void](fmt.Sprintf(`document.getElementById(%q).dispatchEvent(new Event("change", {bubbles: true}))`, id)))
-	}
-	click := func(id string) {
-		t.Helper()
-		run(chromedp.WaitVisible(chromedp.ID(id)), chromedp.Click(chromedp.ID(id)))
-	}
-	value := func(id string) string {
-		t.Helper()
-		return eval(fmt.Sprintf(`document.getElementById(%q).value`, id))
-	}
-	text := func(id string) string {
-		t.Helper()
-		return eval(fmt.Sprintf(`(document.getElementById(%q) || {textContent: "(missing #%s)"}).textContent`, id, id))
-	}
-	waitFor := func(what, expr string) {
-		t.Helper()
-		p.WaitFor(expr, what)
-	}
+	u := user{t, p}
+	run, eval, set, choose, click := u.run, u.eval, u.set, u.choose, u.click
+	value, text, waitFor := u.value, u.text, u.waitFor
 	// shot saves the screen at the three sizes and checks that every
 	// control shown is a touch target of at least 44 × 44 CSS px.
 	shot := func(name string) {

@@ -31,41 +31,9 @@ func TestBrowserLoggerFiles(t *testing.T) {
 	srv := webtest.Serve(t, webtest.App(t))
 	origin := srv.URL
 	p := webtest.Open(t)
-	run := func(steps ...chromedp.Action[chromedp.Void]) {
-		t.Helper()
-		p.Do(steps...)
-	}
-	eval := func(expr string) string {
-		t.Helper()
-		return webtest.Eval[string](p, expr)
-	}
-	set := func(id, text string) {
-		t.Helper()
-		run(chromedp.WaitVisible(chromedp.ID(id)),
-			chromedp.Evaluate[chromedp.Void](fmt.Sprintf(`(() => { const e = document.getElementById(%q); e.focus(); e.select(); })()`, id)),
-			chromedp.SendKeys(chromedp.ID(id), text))
-	}
-	choose := func(id, value string) {
-		t.Helper()
-		run(chromedp.WaitVisible(chromedp.ID(id)), chromedp.SetValue(chromedp.ID(id), value),
-			chromedp.Evaluate[chromedp.Void](fmt.Sprintf(`document.getElementById(%q).dispatchEvent(new Event("change", {bubbles: true}))`, id)))
-	}
-	click := func(id string) {
-		t.Helper()
-		run(chromedp.WaitVisible(chromedp.ID(id)), chromedp.Click(chromedp.ID(id)))
-	}
-	text := func(id string) string {
-		t.Helper()
-		return eval(fmt.Sprintf(`(document.getElementById(%q) || {textContent: "(missing #%s)"}).textContent`, id, id))
-	}
-	value := func(id string) string {
-		t.Helper()
-		return eval(fmt.Sprintf(`(document.getElementById(%q) || {value: "(missing #%s)"}).value`, id, id))
-	}
-	waitFor := func(what, expr string) {
-		t.Helper()
-		p.WaitFor(expr, what)
-	}
+	u := user{t, p}
+	run, eval, set, choose, click := u.run, u.eval, u.set, u.choose, u.click
+	value, text, waitFor := u.value, u.text, u.waitFor
 	upload := func(id, name string) {
 		t.Helper()
 		path, err := filepath.Abs(filepath.Join("..", "testdata", "fielddata", name))
@@ -212,7 +180,7 @@ func BenchmarkBrowserImport1M(b *testing.B) {
 	p.Navigate(srv.URL + "/")
 	p.WaitRunning()
 	p.WaitFor(`!!document.getElementById("new-project")`, "the project list")
-	click := func(id string) { p.Do(chromedp.WaitVisible(chromedp.ID(id)), chromedp.Click(chromedp.ID(id))) }
+	click := user{b, p}.click
 	var total time.Duration
 	for i := 0; b.Loop(); i++ {
 		if i > 0 {
