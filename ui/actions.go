@@ -212,7 +212,7 @@ func capital(s string) string {
 // addTestLocked adds a constant-rate test with the project's wells.
 func (a *App) addTestLocked() {
 	d := DisplayFor(a.cur.Units)
-	t := project.ConstantRateTest{ID: project.NewID(), Name: fmt.Sprintf("Constant-rate test %d", len(a.cur.Tests)+1),
+	t := project.Test{ID: project.NewID(), Name: fmt.Sprintf("Constant-rate test %d", len(a.cur.Tests)+1),
 		TimeMode: project.ElapsedMinutes, DepthUnit: d.Length.Symbol, Readings: []project.Reading{},
 		Rate: project.Entry{Unit: d.Rate.Symbol}}
 	for _, w := range a.cur.Wells {
@@ -319,7 +319,7 @@ func (a *App) SetTestField(field, text string) {
 }
 
 // rateUnit is the unit the rate of t is typed in.
-func rateUnit(t *project.ConstantRateTest, d Display) units.Unit {
+func rateUnit(t *project.Test, d Display) units.Unit {
 	if u, ok := units.Lookup(t.Rate.Unit); ok && u.Quantity == units.Rate {
 		return u
 	}
@@ -327,7 +327,7 @@ func rateUnit(t *project.ConstantRateTest, d Display) units.Unit {
 }
 
 // testMessages returns the messages of the test form, by field.
-func testMessages(p *project.Project, t *project.ConstantRateTest) map[string]string {
+func testMessages(p *project.Project, t *project.Test) map[string]string {
 	msgs := map[string]string{}
 	if strings.TrimSpace(t.StartText) != "" && t.Start.IsZero() {
 		msgs["start"] = fmt.Sprintf("%q is not a date and time (yyyy-mm-dd hh:mm).", t.StartText)

@@ -11,12 +11,12 @@ import (
 func benchProject(n int) *project.Project {
 	p := project.New("bench", project.SI, clock0)
 	p.Wells = []project.Well{{ID: "o", Name: "OW", Kind: project.Observation, Distance: project.Entry{Text: "25", Unit: "m", SI: 25, OK: true}}}
-	t := project.ConstantRateTest{ID: "t", ObservationWell: "o", StaticLevel: entryM(5.12),
+	t := project.Test{ID: "t", ObservationWell: "o", StaticLevel: entryM(5.12),
 		Rate: project.Entry{Text: "7.5", Unit: "L/s", SI: 7.5e-3, OK: true}}
 	for i := 0; i < n; i++ {
 		t.Readings = append(t.Readings, project.Reading{TimeText: fmt.Sprint(i + 1), DepthText: fmt.Sprintf("%.3f", 5.2+0.001*float64(i))})
 	}
-	p.Tests = []project.ConstantRateTest{t}
+	p.Tests = []project.Test{t}
 	return p
 }
 

@@ -73,14 +73,14 @@ func DemoProject(ctx context.Context, now time.Time, fit func(context.Context, F
 	p.Wells = []project.Well{pw, ow}
 	start := time.Date(2026, 3, 17, 9, 0, 0, 0, time.UTC)
 	ls := mustUnit("L/s")
-	t := project.ConstantRateTest{
+	t := project.Test{
 		ID: project.NewID(), Name: "Constant rate, 6 h", Start: start, StartText: "2026-03-17T09:00",
 		Rate:        project.Entry{Text: "9.5", Unit: ls.Symbol, SI: ls.ToSI(9.5), OK: true},
 		StaticLevel: e(demoStatic), PumpingWell: pw.ID, ObservationWell: ow.ID,
 		TimeMode: project.ElapsedMinutes, DepthUnit: m.Symbol, Readings: DemoReadings(),
 		Fit: project.FitSettings{Model: project.Theis},
 	}
-	p.Tests = []project.ConstantRateTest{t}
+	p.Tests = []project.Test{t}
 	tt := &p.Tests[0]
 	req, missing := fitRequest(p, tt, nil)
 	if len(missing) > 0 {

@@ -11,7 +11,7 @@ import (
 
 func ExampleCheckReadings() {
 	m, _ := units.Lookup("m")
-	t := &project.ConstantRateTest{
+	t := &project.Test{
 		StaticLevel: project.Entry{Text: "4.20", Unit: "m", SI: 4.20, OK: true},
 		Readings: []project.Reading{
 			{TimeText: "1", DepthText: "4.55"},
@@ -33,7 +33,7 @@ func ExampleCheckReadings() {
 }
 
 func ExamplePasteReadings() {
-	t := &project.ConstantRateTest{}
+	t := &project.Test{}
 	n, msg := ui.PasteReadings(t, 0, "time", "min\tdepth\n1\t4.55\n2\t4.71\n")
 	fmt.Println(n, msg)
 	fmt.Println(t.Readings[1].TimeText, t.Readings[1].DepthText)

@@ -25,7 +25,7 @@ type fitState struct {
 }
 
 // currentTest returns the selected test of the open project, or nil.
-func (a *App) currentTest() *project.ConstantRateTest {
+func (a *App) currentTest() *project.Test {
 	if a.cur == nil || len(a.cur.Tests) == 0 {
 		return nil
 	}
@@ -36,7 +36,7 @@ func (a *App) currentTest() *project.ConstantRateTest {
 }
 
 // depthUnit is the unit the readings' depths are typed in.
-func depthUnit(t *project.ConstantRateTest) units.Unit {
+func depthUnit(t *project.Test) units.Unit {
 	if u, ok := units.Lookup(t.DepthUnit); ok && u.Quantity == units.Length {
 		return u
 	}
@@ -47,7 +47,7 @@ func depthUnit(t *project.ConstantRateTest) units.Unit {
 // sentences what is missing. The readings are the tape readings of the
 // table, or the logger record conditioned by cond (conditionTest when
 // nil) when the test fits the logger record.
-func fitRequest(p *project.Project, t *project.ConstantRateTest, cond conditioner) (FitRequest, []string) {
+func fitRequest(p *project.Project, t *project.Test, cond conditioner) (FitRequest, []string) {
 	var req FitRequest
 	var missing []string
 	req.Model = t.Fit.ModelOrDefault()
@@ -103,7 +103,7 @@ func fitRequest(p *project.Project, t *project.ConstantRateTest, cond conditione
 
 // fitRequestLocked is fitRequest for the open project, with the app's
 // cache of the conditioned logger record.
-func (a *App) fitRequestLocked(t *project.ConstantRateTest) (FitRequest, []string) {
+func (a *App) fitRequestLocked(t *project.Test) (FitRequest, []string) {
 	return fitRequest(a.cur, t, a.conditionedLocked)
 }
 
@@ -206,7 +206,7 @@ func (a *App) restorePlotLocked() {
 
 // SetModel chooses the model of the selected test.
 func (a *App) SetModel(m project.Model) {
-	a.editTest(func(t *project.ConstantRateTest) {
+	a.editTest(func(t *project.Test) {
 		if m == project.Theis || m == project.CooperJacob {
 			t.Fit.Model = m
 		}
@@ -224,12 +224,12 @@ func (a *App) SetCJUMax(text string) {
 	if err != nil || !slices.Contains(CJUMaxChoices, v) {
 		return
 	}
-	a.editTest(func(t *project.ConstantRateTest) { t.Fit.CJUMax = v }, true)
+	a.editTest(func(t *project.Test) { t.Fit.CJUMax = v }, true)
 }
 
 // SetAutoFit turns the automatic refit on or off.
 func (a *App) SetAutoFit(on bool) {
-	a.editTest(func(t *project.ConstantRateTest) { t.Fit.Manual = !on }, on)
+	a.editTest(func(t *project.Test) { t.Fit.Manual = !on }, on)
 }
 
 // MaxSmoothing is the widest derivative smoothing window accepted, in log
@@ -246,7 +246,7 @@ func smoothingMessage(f project.FitSettings) string {
 
 // SetSmoothing sets the derivative smoothing L (log cycles) from text.
 func (a *App) SetSmoothing(text string) {
-	a.editTest(func(t *project.ConstantRateTest) {
+	a.editTest(func(t *project.Test) {
 		t.Fit.SmoothingText = text
 		t.Fit.Smoothing = 0
 		if v, err := parseNumber(text); err == nil && v > 0 && v <= MaxSmoothing {
@@ -259,7 +259,7 @@ func (a *App) SetSmoothing(text string) {
 // minutes typed. Text that is not a number is kept and the side is left
 // open, with a message.
 func (a *App) SetWindowText(side, text string) {
-	a.editTest(func(t *project.ConstantRateTest) {
+	a.editTest(func(t *project.Test) {
 		v, err := parseNumber(text)
 		sec := 0.0
 		if err == nil && v > 0 {
@@ -275,14 +275,14 @@ func (a *App) SetWindowText(side, text string) {
 
 // ClearWindow fits every reading again.
 func (a *App) ClearWindow() {
-	a.editTest(func(t *project.ConstantRateTest) {
+	a.editTest(func(t *project.Test) {
 		t.Fit.WindowStart, t.Fit.WindowEnd = 0, 0
 		t.Fit.WindowStartText, t.Fit.WindowEndText = "", ""
 	}, true)
 }
 
 // setWindowSeconds sets the fit window from a drag (seconds, any order).
-func (a *App) setWindowLocked(t *project.ConstantRateTest, s0, s1 float64) {
+func (a *App) setWindowLocked(t *project.Test, s0, s1 float64) {
 	if s1 < s0 {
 		s0, s1 = s1, s0
 	}
@@ -319,7 +319,7 @@ func windowMessage(f project.FitSettings) string {
 
 // editTest applies edit to the selected test, records the change, and
 // refits when refit is true (and the fit is automatic).
-func (a *App) editTest(edit func(t *project.ConstantRateTest), refit bool) {
+func (a *App) editTest(edit func(t *project.Test), refit bool) {
 	a.mu.Lock()
 	defer a.mu.Unlock()
 	t := a.currentTest()

@@ -718,7 +718,7 @@ func (a *App) RemoveLoggerRecord(role string) {
 // SetSource chooses the readings the test's fit uses: "tape" (the
 // readings table) or "logger" (the conditioned logger record).
 func (a *App) SetSource(s string) {
-	a.editTest(func(t *project.ConstantRateTest) {
+	a.editTest(func(t *project.Test) {
 		switch project.Source(s) {
 		case project.FromTape, project.FromLogger:
 			t.Source = project.Source(s)

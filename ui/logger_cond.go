@@ -23,13 +23,13 @@ type condCache struct {
 }
 
 // conditioner conditions a test's logger record.
-type conditioner func(t *project.ConstantRateTest) (*fielddata.Result, error)
+type conditioner func(t *project.Test) (*fielddata.Result, error)
 
 // errNoLogger: the test has no water-level record.
 var errNoLogger = errors.New("no water-level logger record imported")
 
 // conditionTest runs fielddata.Apply on the test's logger records.
-func conditionTest(t *project.ConstantRateTest) (*fielddata.Result, error) {
+func conditionTest(t *project.Test) (*fielddata.Result, error) {
 	lg := t.Logger
 	if lg == nil || lg.Water == nil {
 		return nil, errNoLogger
@@ -43,7 +43,7 @@ func conditionTest(t *project.ConstantRateTest) (*fielddata.Result, error) {
 }
 
 // conditionedLocked is conditionTest with the app's cache.
-func (a *App) conditionedLocked(t *project.ConstantRateTest) (*fielddata.Result, error) {
+func (a *App) conditionedLocked(t *project.Test) (*fielddata.Result, error) {
 	lg := t.Logger
 	if lg == nil || lg.Water == nil {
 		return nil, errNoLogger
@@ -66,7 +66,7 @@ func (a *App) conditionedLocked(t *project.ConstantRateTest) (*fielddata.Result,
 // request: the thinned pumping segment after the start (t > 0); the
 // reading at the start itself cannot be fitted. It returns what is
 // missing.
-func loggerReadings(req *FitRequest, t *project.ConstantRateTest, cond conditioner) []string {
+func loggerReadings(req *FitRequest, t *project.Test, cond conditioner) []string {
 	if t.Logger == nil || t.Logger.Water == nil {
 		return []string{"Import the water-level logger file on the Logger data tab, or fit the tape readings."}
 	}
@@ -100,7 +100,7 @@ func loggerReadings(req *FitRequest, t *project.ConstantRateTest, cond condition
 // editLogger applies edit to the conditioning of the selected test's
 // logger record and refits.
 func (a *App) editLogger(edit func(lg *project.LoggerData)) {
-	a.editTest(func(t *project.ConstantRateTest) {
+	a.editTest(func(t *project.Test) {
 		if t.Logger == nil {
 			t.Logger = &project.LoggerData{}
 		}

@@ -67,7 +67,7 @@ func (a *App) renderLogger() *v.Node {
 }
 
 // sourceSelect chooses the readings the fit uses.
-func sourceSelect(a *App, t *project.ConstantRateTest) *v.Node {
+func sourceSelect(a *App, t *project.Test) *v.Node {
 	src := string(project.FromTape)
 	if t.FitsLogger() {
 		src = string(project.FromLogger)
@@ -475,7 +475,7 @@ func previewTable(rec *fielddata.Record, d Display) *v.Node {
 
 // ---- conditioning ----
 
-func (a *App) renderConditioning(t *project.ConstantRateTest, lg *project.LoggerData, d Display) *v.Node {
+func (a *App) renderConditioning(t *project.Test, lg *project.LoggerData, d Display) *v.Node {
 	w := lg.Water
 	c := lg.Conditioning
 	tx := lg.Texts
@@ -670,7 +670,7 @@ func stride(n int) []int {
 
 // loggerPlots draws the raw record (tap to pick the start or stop) and
 // the conditioned drawdown.
-func (a *App) loggerPlots(t *project.ConstantRateTest, lg *project.LoggerData, res *fielddata.Result, d Display) *v.Node {
+func (a *App) loggerPlots(t *project.Test, lg *project.LoggerData, res *fielddata.Result, d Display) *v.Node {
 	w := lg.Water
 	box := v.El("div", v.A("class", "ff-plots"))
 	n := w.Len()

@@ -85,7 +85,7 @@ func loggerTest(h *harness) {
 	h.click("tab-logger")
 }
 
-func (h *harness) test0() project.ConstantRateTest {
+func (h *harness) test0() project.Test {
 	return h.app.Current().Tests[0]
 }
 
@@ -446,7 +446,7 @@ func TestConditioningStoredAndUndone(t *testing.T) {
 func ptr(x float64) *float64 { return &x }
 
 func jsonOf(c fielddata.Conditioning) string {
-	p := &project.Project{ID: "x", Tests: []project.ConstantRateTest{{ID: "t", Logger: &project.LoggerData{Conditioning: c}}}}
+	p := &project.Project{ID: "x", Tests: []project.Test{{ID: "t", Logger: &project.LoggerData{Conditioning: c}}}}
 	b, _ := project.Marshal(p)
 	s := string(b)
 	i := strings.Index(s, `"conditioning"`)

@@ -27,7 +27,7 @@ type plotData struct {
 	modelDeriv []float64 // the model's own log-derivative at curveT
 }
 
-func (a *App) plotData(p *project.Project, t *project.ConstantRateTest, d Display) *plotData {
+func (a *App) plotData(p *project.Project, t *project.Test, d Display) *plotData {
 	req, _ := a.fitRequestLocked(t)
 	pd := &plotData{}
 	L := d.Length
@@ -76,7 +76,7 @@ func (a *App) plotData(p *project.Project, t *project.ConstantRateTest, d Displa
 	return pd
 }
 
-func (a *App) renderPlots(p *project.Project, t *project.ConstantRateTest, d Display) *v.Node {
+func (a *App) renderPlots(p *project.Project, t *project.Test, d Display) *v.Node {
 	box := v.El("div", v.A("id", "plots", "class", "ff-plots"))
 	pd := a.plotData(p, t, d)
 	if len(pd.tMin) == 0 {
@@ -149,7 +149,7 @@ func (a *App) renderPlots(p *project.Project, t *project.ConstantRateTest, d Dis
 
 // chartNode renders a chart into a view node with the given id; when drag
 // is true, dragging across it chooses the fit window.
-func (a *App) chartNode(id string, c *plot.Chart, drag bool, t *project.ConstantRateTest) *v.Node {
+func (a *App) chartNode(id string, c *plot.Chart, drag bool, t *project.Test) *v.Node {
 	n, lay, err := c.Render()
 	if err != nil {
 		return v.TextEl("p", v.A("id", id, "class", "ff-msg"), "This plot cannot be drawn: "+err.Error())

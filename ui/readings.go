@@ -70,7 +70,7 @@ func ParseClock(text string) (float64, error) {
 // not after the pump start or not after the row above, negative drawdown.
 // It stores the parsed SI values back into t.Readings and returns one
 // RowCheck per reading.
-func CheckReadings(t *project.ConstantRateTest, length units.Unit) []RowCheck {
+func CheckReadings(t *project.Test, length units.Unit) []RowCheck {
 	checks := make([]RowCheck, len(t.Readings))
 	static, hasStatic := t.StaticLevel.Value()
 	startSec := float64(t.Start.Hour()*3600+t.Start.Minute()*60+t.Start.Second()) + float64(t.Start.Nanosecond())/1e9
@@ -149,7 +149,7 @@ func CheckReadings(t *project.ConstantRateTest, length units.Unit) []RowCheck {
 // SetReading sets the text of one cell (field "time" or "depth") of row
 // i, growing the table when i is the empty row below the last, and drops
 // empty rows at the end. It returns false for an unknown field or row.
-func SetReading(t *project.ConstantRateTest, i int, field, text string) bool {
+func SetReading(t *project.Test, i int, field, text string) bool {
 	if i < 0 || i > len(t.Readings) || (field != "time" && field != "depth") {
 		return false
 	}
@@ -176,7 +176,7 @@ func SetReading(t *project.ConstantRateTest, i int, field, text string) bool {
 // in which no cell is a number is taken as a header and skipped. Cells
 // beyond the depth column are ignored. It returns the number of rows
 // written and a sentence for the user.
-func PasteReadings(t *project.ConstantRateTest, i int, field, text string) (int, string) {
+func PasteReadings(t *project.Test, i int, field, text string) (int, string) {
 	text = strings.ReplaceAll(strings.ReplaceAll(text, "\r\n", "\n"), "\r", "\n")
 	lines := strings.Split(strings.TrimRight(text, "\n"), "\n")
 	col := 0
@@ -251,7 +251,7 @@ func IsPastable(text string) bool {
 
 // UsableReadings returns the elapsed times (s) and drawdowns (m) of the
 // usable rows, in order, with their row indexes.
-func UsableReadings(t *project.ConstantRateTest, checks []RowCheck) (times, drawdowns []float64, rows []int) {
+func UsableReadings(t *project.Test, checks []RowCheck) (times, drawdowns []float64, rows []int) {
 	for i, c := range checks {
 		if c.Usable {
 			times = append(times, c.Elapsed)

@@ -93,7 +93,7 @@ func TestCheckReadings(t *testing.T) {
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			test := &project.ConstantRateTest{TimeMode: tt.mode, StaticLevel: entryM(7.42),
+			test := &project.Test{TimeMode: tt.mode, StaticLevel: entryM(7.42),
 				Start: time.Date(2026, 6, 1, 9, 0, 0, 0, time.UTC), Readings: tt.readings}
 			if tt.name == "clock past midnight" {
 				test.Start = time.Date(2026, 6, 1, 23, 0, 0, 0, time.UTC)
@@ -128,7 +128,7 @@ func TestCheckReadings(t *testing.T) {
 func TestDrawdownInFeet(t *testing.T) {
 	// Static 24.30 ft typed in feet, depths in feet: drawdown in metres
 	// is (25.30 − 24.30) ft × 0.3048 m/ft (international foot, exact).
-	test := &project.ConstantRateTest{StaticLevel: project.Entry{Text: "24.30", Unit: "ft", SI: 24.30 * 0.3048, OK: true},
+	test := &project.Test{StaticLevel: project.Entry{Text: "24.30", Unit: "ft", SI: 24.30 * 0.3048, OK: true},
 		DepthUnit: "ft", Readings: rows("1", "25.30")}
 	c := CheckReadings(test, mustUnit("ft"))
 	if math.Abs(c[0].Drawdown-0.3048) > 1e-12 {
@@ -137,7 +137,7 @@ func TestDrawdownInFeet(t *testing.T) {
 }
 
 func TestSetReading(t *testing.T) {
-	test := &project.ConstantRateTest{}
+	test := &project.Test{}
 	SetReading(test, 0, "time", "1")
 	SetReading(test, 0, "depth", "7.5")
 	SetReading(test, 1, "time", "2")
@@ -179,7 +179,7 @@ func TestPasteReadings(t *testing.T) {
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			test := &project.ConstantRateTest{Readings: append([]project.Reading(nil), tt.start...)}
+			test := &project.Test{Readings: append([]project.Reading(nil), tt.start...)}
 			_, msg := PasteReadings(test, tt.row, tt.field, tt.text)
 			if !reflect.DeepEqual(test.Readings, tt.want) {
 				t.Errorf("readings = %+v, want %+v", test.Readings, tt.want)
@@ -198,7 +198,7 @@ func FuzzCheckReadings(f *testing.F) {
 	f.Add("1\t7.5\n2\t7.6\n1,5\tx", false)
 	f.Add("09:00\t7.5\n23:59:59\t8\n00:01\t9", true)
 	f.Fuzz(func(t *testing.T, text string, clock bool) {
-		test := &project.ConstantRateTest{StaticLevel: entryM(7.42), Start: time.Date(2026, 1, 1, 8, 0, 0, 0, time.UTC)}
+		test := &project.Test{StaticLevel: entryM(7.42), Start: time.Date(2026, 1, 1, 8, 0, 0, 0, time.UTC)}
 		if clock {
 			test.TimeMode = project.ClockTime
 		}

@@ -396,7 +396,7 @@ func (a *App) renderTest() *v.Node {
 	return div.Add(card)
 }
 
-func timeMode(t *project.ConstantRateTest) project.TimeMode {
+func timeMode(t *project.Test) project.TimeMode {
 	if t.TimeMode == "" {
 		return project.ElapsedMinutes
 	}
@@ -564,7 +564,7 @@ func (a *App) renderFit() *v.Node {
 	return div
 }
 
-func (a *App) fitStatus(t *project.ConstantRateTest) string {
+func (a *App) fitStatus(t *project.Test) string {
 	switch {
 	case a.fit.running:
 		return "Fitting…"
@@ -590,7 +590,7 @@ func modelName(m project.Model) string {
 	return "Theis"
 }
 
-func (a *App) renderResults(p *project.Project, t *project.ConstantRateTest, d Display) *v.Node {
+func (a *App) renderResults(p *project.Project, t *project.Test, d Display) *v.Node {
 	box := v.El("div", v.A("id", "results", "class", "ff-card ff-results"))
 	box.Add(v.TextEl("h3", nil, "Results"))
 	r := t.Result

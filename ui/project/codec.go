@@ -16,8 +16,8 @@ const Format = "fieldfit-project"
 
 // Version is the version of the project file format this package writes.
 //
-// Version 2 added the logger records of a test (ConstantRateTest.Logger)
-// and the choice of the readings fitted (ConstantRateTest.Source).
+// Version 2 added the logger records of a test (Test.Logger)
+// and the choice of the readings fitted (Test.Source).
 const Version = 2
 
 // Sentinel errors wrapped by *DecodeError.
@@ -167,7 +167,7 @@ func detachSamples(p *Project) (*Project, []Samples) {
 		}
 		if q == p {
 			c := *p
-			c.Tests = append([]ConstantRateTest(nil), p.Tests...)
+			c.Tests = append([]Test(nil), p.Tests...)
 			q = &c
 		}
 		l2 := *lg
@@ -264,7 +264,7 @@ func (p *Project) check() error {
 		p.Wells = []Well{}
 	}
 	if p.Tests == nil {
-		p.Tests = []ConstantRateTest{}
+		p.Tests = []Test{}
 	}
 	seen := map[string]bool{}
 	for i, w := range p.Wells {

@@ -20,7 +20,7 @@ const (
 	// The zero value "" means FromTape too.
 	FromTape Source = "tape"
 	// FromLogger fits the conditioned, thinned drawdown of the imported
-	// water-level logger record (ConstantRateTest.Logger).
+	// water-level logger record (Test.Logger).
 	FromLogger Source = "logger"
 )
 

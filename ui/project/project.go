@@ -63,10 +63,10 @@ type Project struct {
 	Units UnitSystem `json:"units"`
 	// Thickness is the saturated aquifer thickness b (m), when known. It
 	// gives K = T/b.
-	Thickness Entry              `json:"thickness,omitempty"`
-	Wells     []Well             `json:"wells"`
-	Tests     []ConstantRateTest `json:"tests"`
-	Notes     string             `json:"notes,omitempty"`
+	Thickness Entry  `json:"thickness,omitempty"`
+	Wells     []Well `json:"wells"`
+	Tests     []Test `json:"tests"`
+	Notes     string `json:"notes,omitempty"`
 	// Rev counts saved changes; the store uses it to keep the latest.
 	Rev int64 `json:"rev"`
 	// Changed is the time of the last change, in UTC.
@@ -116,10 +116,14 @@ const (
 	CooperJacob Model = "cooper-jacob"
 )
 
-// ConstantRateTest is a pumping test at one rate, read in one well.
-type ConstantRateTest struct {
+// Test is one field test of a project. Kind says which; the zero value is
+// a pumping test (constant rate, read in one well), the only kind of
+// format versions 1 and 2.
+type Test struct {
 	ID   string `json:"id"`
 	Name string `json:"name"`
+	// Kind is the kind of test; zero means PumpingTest.
+	Kind TestKind `json:"kind,omitempty"`
 	// Start is when the pump started (local wall-clock time stored as
 	// given, without zone conversion). StartText keeps what was typed.
 	Start     time.Time `json:"start"`
@@ -146,6 +150,9 @@ type ConstantRateTest struct {
 	Fit      FitSettings `json:"fit"`
 	// Result is the last fit, nil before the first.
 	Result *FitResult `json:"result,omitempty"`
+	// Fits are the models fitted to this test, one per model, for the
+	// comparison table; the user's choice stays with the user.
+	Fits []ModelFit `json:"fits,omitempty"`
 	// Source says which readings the fit uses: the table above (FromTape,
 	// also when empty) or the logger record (FromLogger).
 	Source Source `json:"source,omitempty"`
@@ -155,7 +162,7 @@ type ConstantRateTest struct {
 }
 
 // FitsLogger reports whether the fit uses the logger record.
-func (t *ConstantRateTest) FitsLogger() bool { return t.Source == FromLogger }
+func (t *Test) FitsLogger() bool { return t.Source == FromLogger }
 
 // Reading is one row of the readings table: when, and the depth to water.
 // TimeText and DepthText are exactly what was typed. Elapsed (s) and Depth
@@ -288,7 +295,7 @@ func New(name string, units UnitSystem, now time.Time) *Project {
 		units = SI
 	}
 	return &Project{ID: NewID(), Name: name, Units: units, Changed: now.UTC(),
-		Wells: []Well{}, Tests: []ConstantRateTest{}}
+		Wells: []Well{}, Tests: []Test{}}
 }
 
 // Well returns the well with the given ID, or nil.
@@ -302,7 +309,7 @@ func (p *Project) Well(id string) *Well {
 }
 
 // Test returns the test with the given ID, or nil.
-func (p *Project) Test(id string) *ConstantRateTest {
+func (p *Project) Test(id string) *Test {
 	for i := range p.Tests {
 		if p.Tests[i].ID == id {
 			return &p.Tests[i]
@@ -336,7 +343,7 @@ func (p *Project) RemoveWell(id string) bool {
 func (p *Project) Clone() *Project {
 	q := *p
 	q.Wells = append([]Well{}, p.Wells...)
-	q.Tests = make([]ConstantRateTest, len(p.Tests))
+	q.Tests = make([]Test, len(p.Tests))
 	for i, t := range p.Tests {
 		t.Readings = append([]Reading{}, t.Readings...)
 		if t.Result != nil {

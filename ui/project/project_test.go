@@ -21,7 +21,7 @@ func sample() *Project {
 	ow := Well{ID: NewID(), Name: "OW-2", Kind: Observation, Distance: Entry{Text: "82", Unit: "ft", SI: 24.9936, OK: true},
 		ScreenTop: Entry{Text: "3O", Unit: "ft"}} // a typo kept as typed
 	p.Wells = []Well{pw, ow}
-	p.Tests = []ConstantRateTest{{
+	p.Tests = []Test{{
 		ID: NewID(), Name: "24 h constant rate", Start: t0, StartText: "2026-04-07T08:30",
 		Rate:        Entry{Text: "190", Unit: "gal/min", SI: 0.011987, OK: true},
 		StaticLevel: Entry{Text: "24.3", Unit: "ft", SI: 7.40664, OK: true},
