@@ -1,7 +1,6 @@
 package ui
 
 import (
-	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -12,6 +11,7 @@ import (
 	"fieldfit/models/units"
 	"fieldfit/ui/fielddata"
 	"fieldfit/ui/project"
+	"fieldfit/ui/project/jsonc"
 )
 
 // condCache keeps the last conditioned logger record, so that renders
@@ -48,7 +48,7 @@ func (a *App) conditionedLocked(t *project.Test) (*fielddata.Result, error) {
 	if lg == nil || lg.Water == nil {
 		return nil, errNoLogger
 	}
-	settings, _ := json.Marshal(lg.Conditioning)
+	settings, _ := jsonc.Marshal(lg.Conditioning)
 	key := t.ID + "|" + lg.Water.ID + "|"
 	if lg.Baro != nil {
 		key += lg.Baro.ID

@@ -1,14 +1,12 @@
 package project
 
 import (
-	"bytes"
 	"encoding/base64"
-	"encoding/json"
 	"errors"
 	"fmt"
-	"math"
-	"math/rand/v2"
 	"strconv"
+
+	"fieldfit/ui/project/jsonc"
 )
 
 // Format is the value of the "format" field of every project file.
@@ -56,9 +54,9 @@ func (e *DecodeError) Unwrap() error { return e.Err }
 
 // envelope is the outer object of the file.
 type envelope struct {
-	Format  string          `json:"format"`
-	Version int             `json:"version"`
-	Project json.RawMessage `json:"project"`
+	Format  string    `json:"format"`
+	Version int       `json:"version"`
+	Project jsonc.Raw `json:"project"`
 }
 
 // A Migration upgrades the "project" object of a file of version From to
@@ -102,91 +100,30 @@ func upgrade1(p map[string]any) error {
 // Marshal encodes p as a project file of the current Version.
 //
 // The readings of logger records are written as base64 text (see
-// Samples) spliced into the JSON after encoding: encoding/json would
-// otherwise scan each of those strings three times (checking, compacting
-// and indenting), which for a million readings took most of a second on
-// every autosave.
+// Samples), appended straight into the output.
 func Marshal(p *Project) ([]byte, error) {
-	q, cols := detachSamples(p)
-	body, err := json.MarshalIndent(q, " ", " ")
+	out := make([]byte, 0, 1<<16+p.samplesSize())
+	out = append(out, "{\n \"format\": \""+Format+"\",\n \"version\": "+strconv.Itoa(Version)+",\n \"project\": "...)
+	out, err := jsonc.Append(out, p, " ", " ")
 	if err != nil {
 		return nil, fmt.Errorf("project %q: %w", p.ID, err)
 	}
-	size := len(body) + 64
-	for _, c := range cols {
-		size += base64.StdEncoding.EncodedLen(8*len(c)) + 2
-	}
-	out := make([]byte, 0, size)
-	out = append(out, "{\n \"format\": \""+Format+"\",\n \"version\": "+strconv.Itoa(Version)+",\n \"project\": "...)
-	rest := body
-	for i, c := range cols {
-		tok := []byte(spliceToken(i))
-		k := bytes.Index(rest, tok)
-		if k < 0 {
-			return nil, fmt.Errorf("project %q: logger readings %d were not written", p.ID, i)
-		}
-		out = append(out, rest[:k]...)
-		b, _ := c.MarshalJSON()
-		out = append(out, b...)
-		rest = rest[k+len(tok):]
-	}
-	out = append(out, rest...)
 	return append(out, "\n}"...), nil
 }
 
-// spliceNonce makes the placeholders of Marshal unlike any text a user
-// can type.
-var spliceNonce = strconv.FormatUint(rand.Uint64(), 36)
-
-// spliceMark marks a placeholder Samples: a NaN whose payload holds the
-// index of the column it stands for.
-const spliceMark = 0x7FF8_5A3C_0000_0000
-
-func spliceToken(i int) string { return `"@readings:` + spliceNonce + ":" + strconv.Itoa(i) + `@"` }
-
-// spliceIndex returns the column index of a placeholder, or -1.
-func (s Samples) spliceIndex() int {
-	if len(s) != 1 {
-		return -1
-	}
-	if b := math.Float64bits(s[0]); b&^0xFFFF_FFFF == spliceMark {
-		return int(b & 0xFFFF_FFFF)
-	}
-	return -1
-}
-
-// detachSamples returns p, or a copy of it whose logger readings are
-// placeholders, with the columns they stand for in order.
-func detachSamples(p *Project) (*Project, []Samples) {
-	var cols []Samples
-	q := p
+// samplesSize is the length of the base64 text of p's logger readings.
+func (p *Project) samplesSize() int {
+	n := 0
 	for i := range p.Tests {
-		lg := p.Tests[i].Logger
-		if lg == nil || (lg.Water == nil && lg.Baro == nil) {
-			continue
-		}
-		if q == p {
-			c := *p
-			c.Tests = append([]Test(nil), p.Tests...)
-			q = &c
-		}
-		l2 := *lg
-		for _, rp := range []**LoggerRecord{&l2.Water, &l2.Baro} {
-			if *rp == nil {
-				continue
-			}
-			r2 := **rp
-			for _, col := range []*Samples{&r2.Time, &r2.Value} {
-				if len(*col) > 0 {
-					cols = append(cols, *col)
-					*col = Samples{math.Float64frombits(spliceMark | uint64(len(cols)-1))}
+		if lg := p.Tests[i].Logger; lg != nil {
+			for _, r := range []*LoggerRecord{lg.Water, lg.Baro} {
+				if r != nil {
+					n += base64.StdEncoding.EncodedLen(8*len(r.Time)) + base64.StdEncoding.EncodedLen(8*len(r.Value)) + 4
 				}
 			}
-			*rp = &r2
 		}
-		q.Tests[i].Logger = &l2
 	}
-	return q, cols
+	return n
 }
 
 // Unmarshal decodes a project file of this or an older version.
@@ -197,7 +134,7 @@ func Unmarshal(data []byte) (*Project, error) {
 // decode reads a file, upgrading it with chain up to version current.
 func decode(data []byte, current int, chain []Migration) (*Project, error) {
 	var env envelope
-	if err := json.Unmarshal(data, &env); err != nil {
+	if err := jsonc.Unmarshal(data, &env); err != nil {
 		return nil, &DecodeError{Err: fmt.Errorf("%w: %v", ErrNotProject, err)}
 	}
 	if env.Format != Format {
@@ -212,7 +149,7 @@ func decode(data []byte, current int, chain []Migration) (*Project, error) {
 	body := []byte(env.Project)
 	if env.Version < current {
 		var tree map[string]any
-		if err := json.Unmarshal(body, &tree); err != nil || tree == nil {
+		if err := jsonc.Unmarshal(body, &tree); err != nil || tree == nil {
 			return nil, &DecodeError{Version: env.Version, Field: "project", Err: fmt.Errorf("%w: not an object", ErrInvalid)}
 		}
 		for v := env.Version; v < current; v++ {
@@ -225,13 +162,12 @@ func decode(data []byte, current int, chain []Migration) (*Project, error) {
 			}
 		}
 		var err error
-		if body, err = json.Marshal(tree); err != nil {
+		if body, err = jsonc.Marshal(tree); err != nil {
 			return nil, &DecodeError{Version: env.Version, Err: fmt.Errorf("%w: %v", ErrMigration, err)}
 		}
 	}
 	var p Project
-	dec := json.NewDecoder(bytes.NewReader(body))
-	if err := dec.Decode(&p); err != nil {
+	if err := jsonc.Unmarshal(body, &p); err != nil {
 		return nil, &DecodeError{Version: env.Version, Field: "project", Err: fmt.Errorf("%w: %v", ErrInvalid, err)}
 	}
 	if err := p.check(); err != nil {

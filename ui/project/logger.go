@@ -3,13 +3,13 @@ package project
 import (
 	"encoding/base64"
 	"encoding/binary"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
 	"time"
 
 	"fieldfit/ui/fielddata"
+	"fieldfit/ui/project/jsonc"
 )
 
 // Source says which readings of a test the fit uses.
@@ -247,19 +247,21 @@ func CloneConditioning(c fielddata.Conditioning) fielddata.Conditioning {
 type Samples []float64
 
 // MarshalJSON writes the samples as a base64 string.
-func (s Samples) MarshalJSON() ([]byte, error) {
-	if i := s.spliceIndex(); i >= 0 {
-		return []byte(spliceToken(i)), nil
+func (s Samples) MarshalJSON() ([]byte, error) { return s.AppendJSON(nil) }
+
+// AppendJSON appends the samples to dst as a base64 string.
+func (s Samples) AppendJSON(dst []byte) ([]byte, error) {
+	const chunk = 3 * 1024 // values encoded at a time: 24 kB, a multiple of 3 bytes
+	var raw [8 * chunk]byte
+	dst = append(dst, '"')
+	for k := 0; k < len(s); k += chunk {
+		part := s[k:min(k+chunk, len(s))]
+		for i, v := range part {
+			binary.LittleEndian.PutUint64(raw[8*i:], math.Float64bits(v))
+		}
+		dst = base64.StdEncoding.AppendEncode(dst, raw[:8*len(part)])
 	}
-	raw := make([]byte, 8*len(s))
-	for i, v := range s {
-		binary.LittleEndian.PutUint64(raw[8*i:], math.Float64bits(v))
-	}
-	out := make([]byte, base64.StdEncoding.EncodedLen(len(raw))+2)
-	out[0] = '"'
-	base64.StdEncoding.Encode(out[1:], raw)
-	out[len(out)-1] = '"'
-	return out, nil
+	return append(dst, '"'), nil
 }
 
 // errSamples is wrapped by the errors of Samples.UnmarshalJSON.
@@ -269,7 +271,7 @@ var errSamples = errors.New("samples must be a base64 string of little-endian fl
 func (s *Samples) UnmarshalJSON(b []byte) error {
 	if len(b) > 0 && b[0] == '[' {
 		var v []float64
-		if err := json.Unmarshal(b, &v); err != nil {
+		if err := jsonc.Unmarshal(b, &v); err != nil {
 			return fmt.Errorf("%w: %v", errSamples, err)
 		}
 		*s = v
