@@ -3,7 +3,7 @@ package fitcore
 import (
 	"math"
 
-	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/blas/blas64"
 )
 
 // symEigen returns the eigenvalues of the small symmetric matrix a in
@@ -13,14 +13,14 @@ import (
 // accurate for the small eigenvalues of a scaled matrix, and keeps LAPACK's
 // eigensolver out of the WebAssembly bundle. It reports false when the
 // sweeps do not converge or a is not finite.
-func symEigen(a *mat.SymDense) (vals, minVec []float64, ok bool) {
-	n := a.SymmetricDim()
+func symEigen(a blas64.Symmetric) (vals, minVec []float64, ok bool) {
+	n := a.N
 	w := make([]float64, n*n) // working copy, row-major
 	v := make([]float64, n*n) // accumulated rotations, columns are vectors
 	for i := 0; i < n; i++ {
 		v[i*n+i] = 1
 		for j := 0; j < n; j++ {
-			x := a.At(i, j)
+			x := symAt(a, i, j)
 			if math.IsNaN(x) || math.IsInf(x, 0) {
 				return nil, nil, false
 			}

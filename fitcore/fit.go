@@ -3,7 +3,11 @@ package fitcore
 import (
 	"math"
 
+	"gonum.org/v1/gonum/blas"
+	"gonum.org/v1/gonum/blas/blas64"
 	"gonum.org/v1/gonum/mat"
+
+	"fieldfit/fitcore/dense"
 )
 
 const (
@@ -68,14 +72,13 @@ type solver struct {
 	rPlus     []float64 // finite-difference scratch
 	rMinus    []float64
 	pScratch  []float64
-	jac       *mat.Dense // weighted Jacobian in working space (N×P)
-	a         *mat.SymDense
-	damped    *mat.SymDense
-	chol      mat.Cholesky
-	g, delta  *mat.VecDense
+	jac       *mat.Dense       // weighted Jacobian in working space (N×P)
+	a         blas64.Symmetric // JᵀWJ, upper triangle
+	damped    blas64.Symmetric // JᵀWJ + λD, upper triangle
+	chol      dense.Cholesky
+	g, delta  []float64 // gradient JᵀWr and step
 	diag      []float64 // scaling D, the largest diag(JᵀWJ) seen
 	colScale  []float64
-	rVec      *mat.VecDense // a view of r
 	cost      float64
 	evals     int
 	jacEvals  int
@@ -205,14 +208,13 @@ func newSolver(p *Problem, settings *Settings) *solver {
 		rPlus:    make([]float64, n),
 		rMinus:   make([]float64, n),
 		jac:      mat.NewDense(n, np, nil),
-		a:        mat.NewSymDense(np, nil),
-		damped:   mat.NewSymDense(np, nil),
-		g:        mat.NewVecDense(np, nil),
-		delta:    mat.NewVecDense(np, nil),
+		a:        newSym(np),
+		damped:   newSym(np),
+		g:        make([]float64, np),
+		delta:    make([]float64, np),
 		diag:     make([]float64, np),
 		colScale: make([]float64, np),
 	}
-	s.rVec = mat.NewVecDense(n, s.r)
 	if p.Weights != nil {
 		s.sw = make([]float64, n)
 		for i, w := range p.Weights {
@@ -329,10 +331,10 @@ func (s *solver) jacobian(atStart bool) error {
 			}
 		}
 	}
-	s.a.SymOuterK(1, s.jac.T())
-	s.g.MulVec(s.jac.T(), s.rVec)
+	dense.Gram(s.a, s.jac.RawMatrix())
+	dense.MulTVec(s.g, s.jac.RawMatrix(), s.r)
 	for j := 0; j < s.np; j++ {
-		d := s.a.At(j, j)
+		d := s.a.Data[j*s.a.Stride+j]
 		if atStart && d == 0 {
 			return &Error{Op: op, Param: j, Name: s.p.Params[j].Name, Obs: -1, Err: ErrZeroColumn}
 		}
@@ -417,7 +419,7 @@ func (s *solver) iterate() (Status, error) {
 			continue
 		}
 		// Scale the step and form the trial point.
-		d := s.delta.RawVector().Data
+		d := s.delta
 		for j := range d {
 			d[j] *= set.StepFactor
 		}
@@ -489,11 +491,11 @@ func (s *solver) gradientSmall() bool {
 	}
 	worst := 0.0
 	for j := 0; j < s.np; j++ {
-		cn := math.Sqrt(s.a.At(j, j))
+		cn := math.Sqrt(s.a.Data[j*s.a.Stride+j])
 		if cn == 0 {
 			continue
 		}
-		worst = math.Max(worst, math.Abs(s.g.AtVec(j))/(cn*rn))
+		worst = math.Max(worst, math.Abs(s.g[j])/(cn*rn))
 	}
 	return worst <= s.set.GradTol
 }
@@ -502,31 +504,34 @@ func (s *solver) gradientSmall() bool {
 // falling back to a QR solve of the equivalent augmented least-squares
 // problem. It reports false when neither gives a finite step.
 func (s *solver) solveStep(lambda float64) bool {
-	s.damped.CopySym(s.a)
+	copy(s.damped.Data, s.a.Data)
 	for j := 0; j < s.np; j++ {
-		s.damped.SetSym(j, j, s.a.At(j, j)+lambda*s.diag[j])
+		s.damped.Data[j*s.np+j] += lambda * s.diag[j]
 	}
 	if s.chol.Factorize(s.damped) {
-		if err := s.chol.SolveVecTo(s.delta, s.g); err == nil || isCondition(err) {
-			s.delta.ScaleVec(-1, s.delta)
-			if finiteVec(s.delta) {
-				return true
-			}
+		s.chol.SolveVec(s.delta, s.g)
+		for j := range s.delta {
+			s.delta[j] = -s.delta[j]
+		}
+		if finiteVec(s.delta) {
+			return true
 		}
 	}
 	// Fallback: min ‖[J; √(λD)] δ + [r; 0]‖ by QR.
-	aug := mat.NewDense(s.n+s.np, s.np, nil)
-	aug.Slice(0, s.n, 0, s.np).(*mat.Dense).Copy(s.jac)
-	for j := 0; j < s.np; j++ {
-		aug.Set(s.n+j, j, math.Sqrt(lambda*s.diag[j]))
-	}
-	rhs := mat.NewVecDense(s.n+s.np, nil)
+	np := s.np
+	aug := blas64.General{Rows: s.n + np, Cols: np, Stride: np, Data: make([]float64, (s.n+np)*np)}
+	jac := s.jac.RawMatrix()
 	for i := 0; i < s.n; i++ {
-		rhs.SetVec(i, -s.r[i])
+		copy(aug.Data[i*np:i*np+np], jac.Data[i*jac.Stride:i*jac.Stride+np])
 	}
-	var qr mat.QR
-	qr.Factorize(aug)
-	if err := qr.SolveVecTo(s.delta, false, rhs); err != nil && !isCondition(err) {
+	for j := 0; j < np; j++ {
+		aug.Data[(s.n+j)*np+j] = math.Sqrt(lambda * s.diag[j])
+	}
+	rhs := make([]float64, s.n+np)
+	for i := 0; i < s.n; i++ {
+		rhs[i] = -s.r[i]
+	}
+	if math.IsInf(dense.LeastSquares(s.delta, aug, rhs), 1) {
 		return false
 	}
 	return finiteVec(s.delta)
@@ -545,10 +550,10 @@ func (s *solver) trial(d []float64) (accepted bool, pred, actual float64, err er
 	pred = 0
 	for j := 0; j < s.np; j++ {
 		hj := s.qNew[j] - s.q[j]
-		pred -= s.g.AtVec(j) * hj
+		pred -= s.g[j] * hj
 		ah := 0.0
 		for k := 0; k < s.np; k++ {
-			ah += s.a.At(j, k) * (s.qNew[k] - s.q[k])
+			ah += symAt(s.a, j, k) * (s.qNew[k] - s.q[k])
 		}
 		pred -= 0.5 * hj * ah
 	}
@@ -589,9 +594,8 @@ func half(r []float64) float64 {
 	return 0.5 * scale * scale * ssq
 }
 
-func finiteVec(v *mat.VecDense) bool {
-	for i := 0; i < v.Len(); i++ {
-		x := v.AtVec(i)
+func finiteVec(v []float64) bool {
+	for _, x := range v {
 		if math.IsNaN(x) || math.IsInf(x, 0) {
 			return false
 		}
@@ -599,7 +603,15 @@ func finiteVec(v *mat.VecDense) bool {
 	return true
 }
 
-func isCondition(err error) bool {
-	_, ok := err.(mat.Condition)
-	return ok
+// newSym returns an n×n symmetric matrix stored in its upper triangle.
+func newSym(n int) blas64.Symmetric {
+	return blas64.Symmetric{N: n, Stride: n, Uplo: blas.Upper, Data: make([]float64, n*n)}
+}
+
+// symAt returns element (i, j) of a symmetric matrix stored upper.
+func symAt(a blas64.Symmetric, i, j int) float64 {
+	if i > j {
+		i, j = j, i
+	}
+	return a.Data[i*a.Stride+j]
 }

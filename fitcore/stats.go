@@ -1,7 +1,6 @@
 package fitcore
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"sort"
@@ -10,6 +9,8 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat/distuv"
+
+	"fieldfit/fitcore/dense"
 )
 
 // summary fills the statistics of res from the solver's final state: the
@@ -70,7 +71,7 @@ func (s *solver) summary(res *Result) {
 	}
 
 	// JᵀWJ in the problem's space: A_p = S⁻¹ A_q S⁻¹ with S = ∂p/∂q.
-	ap := mat.NewSymDense(np, nil)
+	ap := newSym(np)
 	scale := make([]float64, np)
 	for j := 0; j < np; j++ {
 		scale[j] = 1
@@ -80,23 +81,23 @@ func (s *solver) summary(res *Result) {
 	}
 	for j := 0; j < np; j++ {
 		for k := j; k < np; k++ {
-			ap.SetSym(j, k, s.a.At(j, k)/(scale[j]*scale[k]))
+			ap.Data[j*np+k] = symAt(s.a, j, k) / (scale[j] * scale[k])
 		}
 	}
 	// Column scaling to unit diagonal for a meaningful condition number
 	// and an accurate factorisation.
 	dsc := make([]float64, np)
-	scaled := mat.NewSymDense(np, nil)
+	scaled := newSym(np)
 	for j := 0; j < np; j++ {
-		dsc[j] = math.Sqrt(ap.At(j, j))
+		dsc[j] = math.Sqrt(ap.Data[j*np+j])
 	}
 	for j := 0; j < np; j++ {
 		for k := j; k < np; k++ {
 			v := 0.0
 			if dsc[j] > 0 && dsc[k] > 0 {
-				v = ap.At(j, k) / (dsc[j] * dsc[k])
+				v = ap.Data[j*np+k] / (dsc[j] * dsc[k])
 			}
-			scaled.SetSym(j, k, v)
+			scaled.Data[j*np+k] = v
 		}
 	}
 	if vals, minVec, ok := symEigen(scaled); ok {
@@ -108,15 +109,11 @@ func (s *solver) summary(res *Result) {
 			res.Warnings = append(res.Warnings, illConditioned(names, minVec, res.Condition))
 		}
 	}
-	var chol mat.Cholesky
-	var inv mat.SymDense
-	singular := !chol.Factorize(scaled)
-	if !singular {
-		if err := chol.InverseTo(&inv); err != nil && !isConditionErr(err) {
-			singular = true
-		}
-	}
-	if singular {
+	var chol dense.Cholesky
+	inv := newSym(np)
+	if chol.Factorize(scaled) {
+		chol.InverseTo(inv)
+	} else {
 		res.Warnings = append(res.Warnings, "JᵀWJ is singular at the solution: no standard errors can be given.")
 		return
 	}
@@ -127,7 +124,7 @@ func (s *solver) summary(res *Result) {
 	cov := mat.NewSymDense(np, nil)
 	for j := 0; j < np; j++ {
 		for k := j; k < np; k++ {
-			cov.SetSym(j, k, res.Sigma2*inv.At(j, k)/(dsc[j]*dsc[k]))
+			cov.SetSym(j, k, res.Sigma2*inv.Data[j*np+k]/(dsc[j]*dsc[k]))
 		}
 	}
 	res.Covariance = cov
@@ -206,11 +203,6 @@ func nanSlice(n int) []float64 {
 		v[i] = math.NaN()
 	}
 	return v
-}
-
-func isConditionErr(err error) bool {
-	var c mat.Condition
-	return errors.As(err, &c)
 }
 
 type wrapped struct {

@@ -157,7 +157,13 @@ func (m ImageWell) Jacobian(dst *mat.Dense, t, p []float64) {
 	ji := mat.NewDense(n, nb, nil)
 	img.Jacobian(ji, t, pb)
 	sg := m.Kind.sign()
-	jb.Apply(func(i, j int, v float64) float64 { return v + sg*ji.At(i, j) }, jb)
+	rb, ri2 := jb.RawMatrix(), ji.RawMatrix()
+	for i := 0; i < n; i++ {
+		row, add := rb.Data[i*rb.Stride:i*rb.Stride+nb], ri2.Data[i*ri2.Stride:i*ri2.Stride+nb]
+		for j := range row {
+			row[j] += sg * add[j]
+		}
+	}
 	if m.fitted() {
 		d := make([]float64, n)
 		img.DistanceDerivative(d, t, pb)

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 
+	"fieldfit/fitcore/dense"
 	"fieldfit/models"
 
 	"gonum.org/v1/gonum/mat"
@@ -244,12 +245,12 @@ func (m Exponential) Start(t, y []float64) ([]float64, error) {
 				}
 				full[j] = 0
 			}
-			var x mat.VecDense
-			if err := x.SolveVec(a, mat.NewVecDense(n, rhs)); err != nil {
+			x := make([]float64, len(lin))
+			if !(dense.LeastSquares(x, a.RawMatrix(), rhs) <= dense.ConditionTolerance) {
 				return
 			}
 			for k, j := range lin {
-				full[j] = x.AtVec(k)
+				full[j] = x[k]
 			}
 		}
 		ssr := 0.0

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 
+	"fieldfit/fitcore/dense"
 	"fieldfit/models"
 	"fieldfit/models/units"
 
@@ -348,12 +349,12 @@ func bestLinear(method string, eval evalFunc, t, y []float64, cands [][]float64,
 					a.Set(i, k, cols[k][i])
 				}
 			}
-			var x mat.VecDense
-			if err := x.SolveVec(a, mat.NewVecDense(n, append([]float64(nil), ys...))); err != nil {
+			x := make([]float64, len(lin))
+			if !(dense.LeastSquares(x, a.RawMatrix(), append([]float64(nil), ys...)) <= dense.ConditionTolerance) {
 				continue
 			}
 			for k, j := range lin {
-				v := x.AtVec(k)
+				v := x[k]
 				if pos[k] && !(v > 0) {
 					cmax := 0.0
 					for _, cv := range cols[k] {
