@@ -71,6 +71,10 @@ type ListItem struct {
 	ID      string
 	Name    string
 	Changed time.Time
+	// Unexported reports changes not exported from this device, the
+	// first of them made at Since.
+	Unexported bool
+	Since      time.Time
 }
 
 // deleted is a project removed within the undo window.
@@ -114,6 +118,8 @@ type App struct {
 	imp  *importState // a logger file being imported, nil when none
 	pick string       // "start" or "stop": the next tap on the raw plot sets it
 	cond condCache    // the last conditioned logger record
+
+	files filesState // revisions, project files in and out (files.go)
 }
 
 // NewApp returns an App on the given options; call Start to load the list.
@@ -134,6 +140,7 @@ func NewApp(opt Options) *App {
 		opt.Fit = FitTest
 	}
 	a := &App{opt: opt, screen: ListScreen, busy: map[string]string{}}
+	a.files.actor = "s" + project.NewID()[:8]
 	// Timer callbacks run in goroutines of their own: recover there too.
 	after := opt.After
 	a.opt.After = func(d time.Duration, f func()) func() {
@@ -263,7 +270,8 @@ func (a *App) reloadListLocked() {
 			if a.undo != nil && a.undo.rec.ID == r.ID {
 				continue
 			}
-			a.list = append(a.list, ListItem{ID: r.ID, Name: r.Name, Changed: r.Changed})
+			a.list = append(a.list, ListItem{ID: r.ID, Name: r.Name, Changed: r.Changed,
+				Unexported: r.ChangedSinceExport(), Since: r.Unexported})
 		}
 		a.listErr = ""
 		if err != nil {
@@ -327,6 +335,7 @@ func (a *App) Open(id string) {
 			tab = TabReadings
 		}
 		a.openLocked(p, tab)
+		a.files.openedStored(p, rec)
 	})
 }
 
@@ -342,6 +351,7 @@ func (a *App) openLocked(p *project.Project, tab string) {
 	a.cond = condCache{}
 	a.notice = ""
 	a.restorePlotLocked()
+	a.files.opened()
 }
 
 // Back saves the open project and returns to the list.
@@ -414,10 +424,12 @@ func (a *App) editStored(id, label string, edit func(p *project.Project)) {
 			p, err = project.Unmarshal(rec.Data)
 		}
 		if err == nil {
+			fp := project.Fingerprints(p)
 			edit(p)
 			p.Rev = rec.Rev + 1
 			p.Changed = a.opt.Now().UTC()
-			err = a.putLocked(ctx, p)
+			project.Touch(p, fp, a.files.actor, p.Changed)
+			err = a.putLocked(ctx, p, rec)
 		}
 		a.mu.Lock()
 		defer a.mu.Unlock()
@@ -443,7 +455,7 @@ func (a *App) Duplicate(id string) {
 		if err == nil {
 			q := p.Duplicate(p.Name+" (copy)", a.opt.Now())
 			q.Rev = 1
-			err = a.putLocked(ctx, q)
+			err = a.putLocked(ctx, q, store.Record{})
 		}
 		a.mu.Lock()
 		defer a.mu.Unlock()
@@ -456,13 +468,14 @@ func (a *App) Duplicate(id string) {
 	})
 }
 
-// putLocked writes p to the store; the caller holds saveMu.
-func (a *App) putLocked(ctx context.Context, p *project.Project) error {
+// putLocked writes p to the store, keeping the export marks of prev (the
+// record p was read from, if any); the caller holds saveMu.
+func (a *App) putLocked(ctx context.Context, p *project.Project, prev store.Record) error {
 	data, err := project.Marshal(p)
 	if err != nil {
 		return err
 	}
-	return a.opt.Store.Put(ctx, store.Record{ID: p.ID, Name: p.Name, Rev: p.Rev, Changed: p.Changed, Data: data})
+	return a.opt.Store.Put(ctx, withMarks(store.Record{ID: p.ID, Name: p.Name, Rev: p.Rev, Changed: p.Changed, Data: data}, prev))
 }
 
 // AskDelete asks for confirmation before deleting a project.
@@ -571,6 +584,12 @@ func (a *App) Export(id string) {
 			return
 		}
 		a.opt.Download(fileName(rec.Name), "application/json", rec.Data)
+		if err := a.markExported(ctx, id, rec.Rev); err != nil {
+			a.mu.Lock()
+			a.setProblem(err)
+			a.mu.Unlock()
+		}
+		a.reloadList()
 	})
 }
 
@@ -593,6 +612,7 @@ func (a *App) exportCurrentLocked() {
 	name := fileName(a.cur.Name)
 	go a.opt.Download(name, "application/json", data)
 	a.notice = "Exported " + name + "."
+	a.exportedCurrentLocked()
 }
 
 // fileName makes a file name from a project name: letters, digits, dashes.
@@ -663,11 +683,12 @@ func (a *App) startSaveLocked() {
 	if !a.dirty || a.cur == nil {
 		return
 	}
+	a.files.fp = project.Touch(a.cur, a.files.fp, a.files.actor, a.opt.Now())
 	p := a.cur.Clone()
 	a.dirty = false
 	a.goBusy("save-"+p.ID, "Saving…", func(ctx context.Context) {
 		a.saveMu.Lock()
-		err := a.putLocked(ctx, p)
+		err := a.saveChecked(ctx, p)
 		a.saveMu.Unlock()
 		a.mu.Lock()
 		defer a.mu.Unlock()

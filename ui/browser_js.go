@@ -26,7 +26,7 @@ func RunBrowser(container js.Value, st store.Store, problem error) *App {
 				r.Update()
 			}
 		},
-		Download: download,
+		Download: share,
 	})
 	r := view.Mount(container, app.Render, func(r *view.Root) {
 		r.OnPanic = app.Recovered
@@ -61,6 +61,39 @@ func recoverTo(a *App) {
 	if v := recover(); v != nil {
 		a.Recovered(v)
 	}
+}
+
+// share offers data as a file through the Web Share API where the
+// browser can share files (tablets: navigator.canShare({files})), so that
+// it can go straight to mail or a file app; elsewhere, or when sharing is
+// refused, as a download. A user who cancels the share sheet gets
+// nothing (AbortError), as asked.
+func share(filename, mime string, data []byte) {
+	nav := js.Global().Get("navigator")
+	if !nav.Get("canShare").Truthy() || !nav.Get("share").Truthy() {
+		download(filename, mime, data)
+		return
+	}
+	arr := js.Global().Get("Uint8Array").New(len(data))
+	js.CopyBytesToJS(arr, data)
+	file := js.Global().Get("File").New(js.Global().Get("Array").New(arr), filename, map[string]any{"type": mime})
+	what := map[string]any{"files": js.Global().Get("Array").New(file), "title": filename}
+	if !nav.Call("canShare", what).Truthy() {
+		download(filename, mime, data)
+		return
+	}
+	var then, fail js.Func
+	release := func() { then.Release(); fail.Release() }
+	then = js.FuncOf(func(js.Value, []js.Value) any { release(); return nil })
+	fail = js.FuncOf(func(_ js.Value, args []js.Value) any {
+		release()
+		if len(args) > 0 && args[0].Truthy() && args[0].Get("name").String() == "AbortError" {
+			return nil
+		}
+		download(filename, mime, data)
+		return nil
+	})
+	nav.Call("share", what).Call("then", then, fail)
 }
 
 // download offers data as a file through a temporary object URL and an

@@ -39,7 +39,9 @@ func (a *App) Render() *v.Node {
 	if a.notice != "" {
 		root.Add(v.TextEl("div", v.A("id", "notice", "class", "ff-notice", "role", "status", "aria-live", "polite"), a.notice))
 	}
-	if a.screen == ProjectScreen && a.cur != nil {
+	if a.files.merge != nil {
+		root.Add(a.renderMerge())
+	} else if a.screen == ProjectScreen && a.cur != nil {
 		root.Add(a.renderProject())
 	} else {
 		root.Add(a.renderList())
@@ -127,7 +129,7 @@ func selectField(id, label, value string, opts []option, msg string, onChange fu
 func (a *App) renderList() *v.Node {
 	s := v.El("section", v.A("id", "screen-list", "class", "ff-screen"))
 	s.Add(v.El("div", v.A("class", "ff-actions"),
-		button("new-project", "New project", "ff-btn ff-primary", a.NewProject)))
+		button("new-project", "New project", "ff-btn ff-primary", a.NewProject)), a.renderFilesBar())
 	if a.undo != nil {
 		s.Add(v.El("div", v.A("id", "undo-bar", "class", "ff-banner ff-info", "role", "status"),
 			v.TextEl("span", nil, fmt.Sprintf("Deleted “%s”.", a.undo.rec.Name)),
@@ -179,7 +181,7 @@ func (a *App) renderListItem(it ListItem) *v.Node {
 	}
 	open := v.El("button", v.A("type", "button", "class", "ff-open", "data-action", "open"),
 		v.TextEl("span", v.A("class", "project-name"), name),
-		v.TextEl("span", v.A("class", "ff-sub"), "changed "+it.Changed.Local().Format("2006-01-02 15:04")))
+		v.TextEl("span", v.A("class", "ff-sub"), "changed "+it.Changed.Local().Format("2006-01-02 15:04")), exportBadge(it))
 	open.Handle("click", func(*v.Event) { a.Open(id) })
 	li.Add(open)
 	if a.askDel == id {

@@ -10,7 +10,7 @@
 //
 // The file format is our own JSON envelope
 //
-//	{"format": "fieldfit-project", "version": 2, "project": {...}}
+//	{"format": "fieldfit-project", "version": 3, "project": {...}}
 //
 // Marshal writes it and Unmarshal reads it, upgrading older versions through
 // the registered migrations, one version at a time. The package is pure Go.
@@ -22,4 +22,11 @@
 // user's decision to skip them, the checks of the times), the
 // fielddata.Conditioning settings and the texts typed for them. The
 // upgrade from version 1 marks every test "source": "tape".
+//
+// Version 3 added a revision record (Stamp) to the project's details,
+// each well and each test, and files of several projects ("projects",
+// MarshalAll, UnmarshalFile). Touch stamps the objects a save changed;
+// Merge compares a project with an incoming copy of it, object by object,
+// and applies the user's decisions where both sides changed. Every field
+// is described in FORMAT.md, which a test keeps complete.
 package project

@@ -3,6 +3,7 @@ package project
 import (
 	"encoding/json"
 	"errors"
+	"fmt"
 	"math"
 	"os"
 	"reflect"
@@ -180,13 +181,14 @@ func TestVersion1File(t *testing.T) {
 			t.Errorf("test %d: source %q, logger %v", i+1, tt.Source, tt.Logger)
 		}
 	}
-	// Written again, it is a version 2 file that reads back the same.
+	// Written again, it is a file of the current version that reads back
+	// the same.
 	again, err := Marshal(p)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !strings.Contains(string(again), `"version": 2`) {
-		t.Error("a migrated project is not written as version 2")
+	if !strings.Contains(string(again), fmt.Sprintf(`"version": %d`, Version)) {
+		t.Errorf("a migrated project is not written as version %d", Version)
 	}
 	q, err := Unmarshal(again)
 	if err != nil || !reflect.DeepEqual(p, q) {

@@ -73,6 +73,9 @@ type Project struct {
 	Changed time.Time `json:"changed"`
 	// Demo marks the invented example project offered on first start.
 	Demo bool `json:"demo,omitempty"`
+	// Details is the revision record of the project's own fields (name,
+	// site, units, thickness, notes, …: all but Wells and Tests).
+	Details Stamp `json:"details"`
 }
 
 // Well is a pumping or an observation well.
@@ -92,6 +95,8 @@ type Well struct {
 	// Distance is the radial distance r from the pumping well (m); for
 	// the pumping well itself it is unused (its radius stands in).
 	Distance Entry `json:"distance,omitempty"`
+	// Stamp is the well's revision record.
+	Stamp Stamp `json:"stamp"`
 }
 
 // TimeMode says how the times of readings are typed.
@@ -159,6 +164,9 @@ type Test struct {
 	// Logger holds the imported logger records and their conditioning;
 	// nil before the first import.
 	Logger *LoggerData `json:"logger,omitempty"`
+	// Stamp is the test's revision record: every field of the test,
+	// also those added later, counts as a change of the test.
+	Stamp Stamp `json:"stamp"`
 }
 
 // FitsLogger reports whether the fit uses the logger record.

@@ -410,6 +410,12 @@ func encodeRecord(r Record) js.Value {
 	o.Set("rev", float64(r.Rev))
 	o.Set("changed", r.Changed.UTC().Format(time.RFC3339Nano))
 	o.Set("data", data)
+	if r.Exported != 0 {
+		o.Set("exported", float64(r.Exported))
+	}
+	if !r.Unexported.IsZero() {
+		o.Set("unexported", r.Unexported.UTC().Format(time.RFC3339Nano))
+	}
 	return o
 }
 
@@ -458,6 +464,28 @@ func decodeRecord(op string, v js.Value) (Record, error) {
 	if n := data.Length(); n > 0 {
 		r.Data = make([]byte, n)
 		js.CopyBytesToGo(r.Data, data)
+	}
+	// exported and unexported are optional (absent before the first
+	// export): absent means zero.
+	if ex := v.Get("exported"); !ex.IsUndefined() {
+		if ex.Type() != js.TypeNumber {
+			return bad("Exported", "stored as %s, not a number", ex.Type())
+		}
+		f := ex.Float()
+		if f != math.Trunc(f) || f < 0 || f > MaxRev {
+			return bad("Exported", "stored value %v is not a whole number in 0…%d", f, int64(MaxRev))
+		}
+		r.Exported = int64(f)
+	}
+	if un := v.Get("unexported"); !un.IsUndefined() {
+		if un.Type() != js.TypeString {
+			return bad("Unexported", "stored as %s, not a string", un.Type())
+		}
+		t, err := time.Parse(time.RFC3339Nano, un.String())
+		if err != nil {
+			return bad("Unexported", "stored value %q is not an RFC 3339 time: %v", un.String(), err)
+		}
+		r.Unexported = t.UTC()
 	}
 	return r, nil
 }

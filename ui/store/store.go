@@ -18,7 +18,17 @@ type Record struct {
 	Rev     int64     // revision counter, +1 on each save
 	Changed time.Time // last change
 	Data    []byte    // the project document (JSON, ui/project codec)
+	// Exported is the Rev of the project at its last export from this
+	// device (0: never exported); Rev > Exported means changed since.
+	Exported int64
+	// Unexported is the time of the first change not in an export, zero
+	// when every change was exported.
+	Unexported time.Time
 }
+
+// ChangedSinceExport reports whether the record holds changes that were
+// not exported from this device.
+func (r Record) ChangedSinceExport() bool { return r.Rev > r.Exported }
 
 // Store keeps Records. Every method may be called from several goroutines.
 type Store interface {
@@ -127,9 +137,14 @@ func (r Record) Validate() error {
 		return bad("Name", "the name %q is not valid UTF-8", r.Name)
 	case r.Rev < 0 || r.Rev > MaxRev:
 		return bad("Rev", "revision %d is outside 0…%d", r.Rev, int64(MaxRev))
+	case r.Exported < 0 || r.Exported > MaxRev:
+		return bad("Exported", "revision %d is outside 0…%d", r.Exported, int64(MaxRev))
 	}
 	if y := r.Changed.UTC().Year(); y < 0 || y > 9999 {
 		return bad("Changed", "time %s is outside the years 0–9999", r.Changed)
+	}
+	if y := r.Unexported.UTC().Year(); y < 0 || y > 9999 {
+		return bad("Unexported", "time %s is outside the years 0–9999", r.Unexported)
 	}
 	return nil
 }
@@ -140,6 +155,7 @@ func isControl(c rune) bool { return c < 0x20 || c == 0x7f }
 // UTC without a monotonic clock reading, Data copied (nil when empty).
 func clone(r Record) Record {
 	r.Changed = r.Changed.UTC()
+	r.Unexported = r.Unexported.UTC()
 	if len(r.Data) == 0 {
 		r.Data = nil
 	} else {
