@@ -16,7 +16,7 @@ func (a *App) SetTab(tab string) {
 	a.mu.Lock()
 	defer a.mu.Unlock()
 	switch tab {
-	case TabSite, TabWells:
+	case TabSite, TabWells, TabReport:
 	case TabTest, TabReadings, TabFit, TabLogger:
 		if a.cur != nil && len(a.cur.Tests) == 0 {
 			a.addTestLocked()

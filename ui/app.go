@@ -46,6 +46,12 @@ type Options struct {
 	Download func(filename, mime string, data []byte)
 	// Fit fits a test; nil means FitTest.
 	Fit func(ctx context.Context, req FitRequest) (*FitOutcome, error)
+	// Print opens the browser's print dialog; nil hides the report's
+	// print button.
+	Print func()
+	// RasterPNG draws an SVG document as a PNG image of w × h pixels
+	// (the browser's canvas); nil offers SVG exports only.
+	RasterPNG func(ctx context.Context, svg []byte, w, h float64) ([]byte, error)
 }
 
 // Screen names the two screens of the app.
@@ -64,6 +70,7 @@ const (
 	TabReadings = "readings"
 	TabFit      = "fit"
 	TabLogger   = "logger"
+	TabReport   = "report"
 )
 
 // ListItem is one project of the list.
@@ -120,6 +127,8 @@ type App struct {
 	cond condCache    // the last conditioned logger record
 
 	files filesState // revisions, project files in and out (files.go)
+
+	report reportState
 }
 
 // NewApp returns an App on the given options; call Start to load the list.

@@ -26,7 +26,9 @@ func RunBrowser(container js.Value, st store.Store, problem error) *App {
 				r.Update()
 			}
 		},
-		Download: share,
+		Download:  share,
+		Print:     printPage,
+		RasterPNG: rasterPNG,
 	})
 	r := view.Mount(container, app.Render, func(r *view.Root) {
 		r.OnPanic = app.Recovered

@@ -31,7 +31,7 @@
 //
 //	project (#screen-project)
 //	#back-to-list, #export-current
-//	#tab-site, #tab-wells, #tab-test, #tab-readings, #tab-logger, #tab-fit   the sections
+//	#tab-site, #tab-wells, #tab-test, #tab-readings, #tab-logger, #tab-fit, #tab-report   the sections
 //	#project-name, #project-site, #project-units (select si|us), #aquifer-b, #project-notes
 //	#add-pumping-well, #add-observation-well; each well div[data-well-id=ID][data-well-index=i]
 //	  inputs #well-i-name, #well-i-radius, #well-i-screen-top, #well-i-screen-bottom,
@@ -49,6 +49,15 @@
 //	  attribute data-value = the value in the displayed unit, full precision),
 //	  #result-rmse, #result-iterations, #result-cj, #result-warnings, #caution
 //	#plot-loglog, #plot-semilog, #plot-residuals (svg)
+//
+//	report (#panel-report; see report.go for the sections each kind of test adds)
+//	#report-controls     not printed: #report-paper (select a4|letter), #report-print,
+//	  #export-readings, #export-curves (CSV)
+//	#report (article[data-paper=a4|letter])   what prints: #report-title, #report-ident,
+//	  #report-caution-top, #report-site (#report-wells), #report-test, #report-data
+//	  (#report-data-table), #report-plots (svg#report-plot-… with buttons #report-plot-…-svg
+//	  and #report-plot-…-png), #report-fits (#report-fits-table), #report-validity,
+//	  #report-notes, #report-caution
 //
 //	logger data (#panel-logger)
 //	#card-water, #card-baro   the two records; in each:

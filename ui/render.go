@@ -208,7 +208,7 @@ func (a *App) renderListItem(it ListItem) *v.Node {
 // ---- project screen ----
 
 var tabs = []struct{ id, label string }{
-	{TabSite, "Site"}, {TabWells, "Wells"}, {TabTest, "Test"}, {TabReadings, "Readings"}, {TabLogger, "Logger data"}, {TabFit, "Fit & plots"},
+	{TabSite, "Site"}, {TabWells, "Wells"}, {TabTest, "Test"}, {TabReadings, "Readings"}, {TabLogger, "Logger data"}, {TabFit, "Fit & plots"}, {TabReport, "Report"},
 }
 
 func (a *App) renderProject() *v.Node {
@@ -246,6 +246,8 @@ func (a *App) renderProject() *v.Node {
 		panel.Add(a.renderFit())
 	case TabLogger:
 		panel.Add(a.renderLogger())
+	case TabReport:
+		panel.Add(a.renderReport())
 	default:
 		panel.Add(a.renderSite())
 	}

@@ -37,7 +37,7 @@ func main() {
 
 // extraFiles are the files of other packages that the page needs, relative
 // to the module root: the style sheet of the screens.
-var extraFiles = []string{"ui/screens.css"}
+var extraFiles = []string{"ui/screens.css", "ui/report.css"}
 
 func run(addr, out, pkg string, extra []string) error {
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)

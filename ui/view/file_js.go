@@ -78,3 +78,8 @@ func await(ctx context.Context, p js.Value) (js.Value, error) {
 		return js.Undefined(), ctx.Err()
 	}
 }
+
+// Await waits for the promise p to settle and returns its value, or an
+// error when it is rejected or ctx ends first. It blocks: call it from a
+// goroutine, never from a Handler.
+func Await(ctx context.Context, p js.Value) (js.Value, error) { return await(ctx, p) }

@@ -37,16 +37,18 @@ import (
 
 // Content-Security-Policy of the page. Only the page's own origin may
 // provide anything; 'wasm-unsafe-eval' lets the page compile WebAssembly
-// (CSP Level 3) and nothing else that eval would allow.
+// (CSP Level 3) and nothing else that eval would allow. Images may also come
+// from blob: URLs the page itself made: the PNG export of a plot loads the
+// plot's SVG as an <img> from one and draws it on a canvas.
 const CSP = "default-src 'self'; script-src 'self' 'wasm-unsafe-eval'; style-src 'self'; " +
-	"img-src 'self'; font-src 'self'; connect-src 'self'; worker-src 'self'; manifest-src 'self'; " +
+	"img-src 'self' blob:; font-src 'self'; connect-src 'self'; worker-src 'self'; manifest-src 'self'; " +
 	"object-src 'none'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'"
 
 // MetaCSP is CSP as the page's <meta> tag carries it, for a static host that
 // sends no headers. It lacks frame-ancestors, which browsers ignore (with a
 // console error) in a <meta> tag.
 const MetaCSP = "default-src 'self'; script-src 'self' 'wasm-unsafe-eval'; style-src 'self'; " +
-	"img-src 'self'; font-src 'self'; connect-src 'self'; worker-src 'self'; manifest-src 'self'; " +
+	"img-src 'self' blob:; font-src 'self'; connect-src 'self'; worker-src 'self'; manifest-src 'self'; " +
 	"object-src 'none'; base-uri 'none'; form-action 'none'"
 
 // Names of files in the bundle.

@@ -99,7 +99,7 @@ func Build(t testing.TB, pkg string) *bundle.Bundle {
 
 // AppExtra are the files of other packages that the app's page needs, as
 // `go run ./web` adds them.
-var AppExtra = []string{"ui/screens.css"}
+var AppExtra = []string{"ui/screens.css", "ui/report.css"}
 
 // App returns the bundle of the app, ./wasm, built once per test binary.
 func App(t testing.TB) *bundle.Bundle { return Build(t, "./wasm") }

@@ -1,0 +1,563 @@
+package ui
+
+import (
+	"math"
+	"strconv"
+	"strings"
+	"time"
+
+	"fieldfit/models/units"
+	"fieldfit/ui/project"
+	v "fieldfit/ui/view"
+)
+
+// The report of a test is the Report tab: a printable page (the browser's
+// Print or Save as PDF makes the paper or the PDF; web/static/report.css
+// is its print style sheet, A4 or US Letter) and the exports of the test's
+// readings, fitted curves and plots.
+//
+// # Adding the sections of a kind of test
+//
+// The report is generic: renderReport builds, in this order,
+//
+//	title block (project, site, test, kind, dates) and the caution
+//	Site and wells            generic: site, aquifer thickness, every well
+//	ReportKind.Test           the kind's test and schedule
+//	Data summary              generic: tape readings, logger records, the
+//	                          conditioning applied; then ReportKind.Data
+//	ReportKind.Plots          the kind's plots
+//	Fitted parameters         generic: a table of ReportKind.Fits (or
+//	                          Test.Fits) with 95 % intervals, RMSE, AICc,
+//	                          ΔAICc when several models were fitted, and
+//	                          each fit's validity notes
+//	ReportKind.After          the kind's own results (hints, step analysis …)
+//	Notes                     generic: the project's notes
+//	the caution again
+//
+// A kind registers its part once, from an init function in its own file:
+//
+//	func init() {
+//		reportKinds[project.SlugTest] = ReportKind{
+//			Test:  func(a *App, rc *ReportContext) []*v.Node { … },
+//			Plots: func(a *App, rc *ReportContext) []*v.Node { … },
+//			Readings: func(a *App, rc *ReportContext) *CSVTable { … },
+//		}
+//	}
+//
+// Every function is optional and is called from Render with the App's
+// lock held: it must return quickly, must not lock a.mu, and may use the
+// a.…Locked helpers (a.fitRequestLocked, a.conditionedLocked) and the
+// builders below (reportSection, reportPairs, reportTable). Plots are
+// <svg class="ff-plot" id="…"> elements inside a <figure> (chartNode
+// makes them); the report adds the SVG and PNG export buttons to each one
+// by itself. User text goes into Text and attribute values only.
+
+// ReportKind is what one kind of test adds to the generic report and to
+// the exports. Any field may be nil.
+type ReportKind struct {
+	// Label names the kind in the title block, e.g. "Slug test"; empty
+	// means the kind's own name.
+	Label string
+	// Test returns the sections that describe the test: its set-up and
+	// schedule (rates, stop time, slug volume, ring size …).
+	Test func(a *App, rc *ReportContext) []*v.Node
+	// Data returns rows added to the generic data summary, as label and
+	// value pairs (counts of the kind's own readings, its conditioning).
+	Data func(a *App, rc *ReportContext) [][2]string
+	// Plots returns the plots, each a figure with an svg.ff-plot inside.
+	Plots func(a *App, rc *ReportContext) []*v.Node
+	// Fits returns the fits to tabulate; nil means Test.Fits.
+	Fits func(a *App, rc *ReportContext) []project.ModelFit
+	// After returns sections shown after the fitted parameters.
+	After func(a *App, rc *ReportContext) []*v.Node
+	// Readings returns the readings as a table for the CSV export; nil
+	// (or a nil table) offers no readings export.
+	Readings func(a *App, rc *ReportContext) *CSVTable
+	// Curves returns the fitted curves as a table for the CSV export.
+	Curves func(a *App, rc *ReportContext) *CSVTable
+}
+
+// reportKinds holds each kind's part of the report. Kinds add themselves
+// in init functions (see above); a kind without an entry gets the generic
+// report only.
+var reportKinds = map[project.TestKind]ReportKind{}
+
+// ReportContext is what the report functions of a kind are given: the
+// open project, the test reported on, and the display units.
+type ReportContext struct {
+	P *project.Project
+	T *project.Test
+	D Display
+	// Now is the time the report is made.
+	Now time.Time
+}
+
+// Paper sizes of the printed report.
+const (
+	PaperA4     = "a4"
+	PaperLetter = "letter"
+)
+
+// reportState is the Report tab's state that is not part of the project.
+type reportState struct {
+	paper string // PaperA4 or PaperLetter; "" means by the unit system
+}
+
+// paperLocked is the chosen paper: A4 unless the project is in US
+// customary units (Letter), until the user chooses.
+func (a *App) paperLocked() string {
+	if a.report.paper != "" {
+		return a.report.paper
+	}
+	if a.cur != nil && a.cur.Units == project.USCustomary {
+		return PaperLetter
+	}
+	return PaperA4
+}
+
+// SetPaper chooses the paper of the printed report: PaperA4 or
+// PaperLetter; anything else is ignored.
+func (a *App) SetPaper(paper string) {
+	if paper != PaperA4 && paper != PaperLetter {
+		return
+	}
+	a.mu.Lock()
+	a.report.paper = paper
+	a.mu.Unlock()
+}
+
+// PrintReport opens the browser's print dialog (print or save as PDF) on
+// the report; nothing happens where printing is not available.
+func (a *App) PrintReport() {
+	a.mu.Lock()
+	f := a.opt.Print
+	a.mu.Unlock()
+	if f != nil {
+		f()
+	}
+}
+
+// kindLabel names a kind of test for the report.
+func kindLabel(k project.TestKind) string {
+	if rk, ok := reportKinds[k]; ok && rk.Label != "" {
+		return rk.Label
+	}
+	switch k {
+	case project.PumpingTest:
+		return "Pumping test"
+	case project.SlugTest:
+		return "Slug test"
+	case project.InfiltrationTest:
+		return "Infiltration test"
+	case project.DecayTest:
+		return "Decay curve"
+	}
+	return string(k)
+}
+
+// renderReport is the Report tab: the controls (not printed), then the
+// report itself, article#report.
+func (a *App) renderReport() *v.Node {
+	p := a.cur
+	t := a.currentTest()
+	div := v.El("div", nil, a.testSelector())
+	if t == nil {
+		return div.Add(v.TextEl("p", v.A("class", "ff-hint"), "Add a test first: the report is made per test."))
+	}
+	rc := &ReportContext{P: p, T: t, D: DisplayFor(p.Units), Now: a.opt.Now()}
+	rk := reportKinds[t.Kind]
+	paper := a.paperLocked()
+
+	ctl := v.El("div", v.A("id", "report-controls", "class", "ff-card ff-noprint"))
+	ctl.Add(v.El("div", v.A("class", "ff-row"),
+		selectField("report-paper", "Paper", paper, []option{{PaperA4, "A4"}, {PaperLetter, "US Letter"}}, "", a.SetPaper)))
+	row := v.El("div", v.A("class", "ff-row"))
+	if a.opt.Print != nil {
+		row.Add(button("report-print", "Print or save as PDF", "ff-btn ff-primary", a.PrintReport))
+	}
+	if a.opt.Download != nil {
+		if rk.Readings != nil {
+			row.Add(button("export-readings", "Readings as CSV", "ff-btn", func() { a.ExportCSV("readings") }))
+		}
+		if rk.Curves != nil {
+			row.Add(button("export-curves", "Fitted curves as CSV", "ff-btn", func() { a.ExportCSV("curves") }))
+		}
+	}
+	ctl.Add(row)
+	ctl.Add(v.TextEl("p", v.A("class", "ff-hint"), "The report below is what prints. Each plot can also be saved on its own, as SVG (for drawings) or PNG (for documents)."))
+	div.Add(ctl)
+
+	art := v.El("article", v.A("id", "report", "class", "ff-report", "data-paper", paper))
+	art.Add(a.reportTitle(rc))
+	art.Add(reportCaution("report-caution-top"))
+	art.Add(reportSite(rc))
+	art.Add(call(a, rc, rk.Test)...)
+	art.Add(a.reportData(rc, rk))
+	if plots := call(a, rc, rk.Plots); len(plots) > 0 {
+		sec := reportSection("report-plots", "Plots", plots...)
+		sec.Set("class", "ff-rsec ff-rplots")
+		a.addPlotExports(sec, rc)
+		art.Add(sec)
+	}
+	var fits []project.ModelFit
+	if rk.Fits != nil {
+		fits = rk.Fits(a, rc)
+	} else {
+		fits = t.Fits
+	}
+	art.Add(reportFits(rc, fits))
+	art.Add(call(a, rc, rk.After)...)
+	if strings.TrimSpace(p.Notes) != "" {
+		art.Add(reportSection("report-notes", "Notes", v.TextEl("p", v.A("class", "ff-rnotes"), p.Notes)))
+	}
+	art.Add(reportCaution("report-caution"))
+	art.Add(v.TextEl("p", v.A("class", "ff-rfoot"), "Made with Fieldfit on "+rc.Now.Local().Format("2006-01-02 15:04")+
+		" from project revision "+strconv.FormatInt(p.Rev, 10)+"."))
+	return div.Add(art)
+}
+
+func call(a *App, rc *ReportContext, f func(*App, *ReportContext) []*v.Node) []*v.Node {
+	if f == nil {
+		return nil
+	}
+	return f(a, rc)
+}
+
+// reportSection is a titled section of the report.
+func reportSection(id, title string, children ...*v.Node) *v.Node {
+	s := v.El("section", v.A("class", "ff-rsec"), v.TextEl("h2", nil, title))
+	if id != "" {
+		s.Set("id", id)
+	}
+	return s.Add(children...)
+}
+
+// reportPairs is a two-column table of labels and values; rows with an
+// empty value are left out.
+func reportPairs(id string, rows [][2]string) *v.Node {
+	body := v.El("tbody", nil)
+	for _, r := range rows {
+		if r[1] == "" {
+			continue
+		}
+		body.Add(v.El("tr", nil, v.TextEl("th", v.A("scope", "row"), r[0]), v.TextEl("td", nil, r[1])))
+	}
+	tb := v.El("table", v.A("class", "ff-rpairs"), body)
+	if id != "" {
+		tb.Set("id", id)
+	}
+	return tb
+}
+
+// reportTable is a table with a header row.
+func reportTable(id string, head []string, rows [][]string) *v.Node {
+	tr := v.El("tr", nil)
+	for _, h := range head {
+		tr.Add(v.TextEl("th", v.A("scope", "col"), h))
+	}
+	body := v.El("tbody", nil)
+	for _, r := range rows {
+		row := v.El("tr", nil)
+		for _, c := range r {
+			row.Add(v.TextEl("td", nil, c))
+		}
+		body.Add(row)
+	}
+	tb := v.El("table", v.A("class", "ff-rtable"), v.El("thead", nil, tr), body)
+	if id != "" {
+		tb.Set("id", id)
+	}
+	return tb
+}
+
+func reportCaution(id string) *v.Node {
+	return v.TextEl("p", v.A("id", id, "class", "ff-caution ff-rcaution", "role", "note"), Caution)
+}
+
+// orNone is s, or a dash when s is blank.
+func orNone(s string) string {
+	if strings.TrimSpace(s) == "" {
+		return "—"
+	}
+	return s
+}
+
+func (a *App) reportTitle(rc *ReportContext) *v.Node {
+	p, t := rc.P, rc.T
+	name := t.Name
+	if strings.TrimSpace(name) == "" {
+		name = "Test " + strconv.Itoa(a.testIdx+1)
+	}
+	h := v.El("header", v.A("class", "ff-rhead"),
+		v.TextEl("p", v.A("class", "ff-rkind"), "Field test report · "+kindLabel(t.Kind)),
+		v.TextEl("h1", v.A("id", "report-title"), name))
+	start := startText(t)
+	h.Add(reportPairs("report-ident", [][2]string{
+		{"Project", orNone(p.Name)},
+		{"Site", orNone(p.Site)},
+		{"Test started", start},
+		{"Project last changed", p.Changed.Local().Format("2006-01-02 15:04")},
+		{"Report made", rc.Now.Local().Format("2006-01-02 15:04")},
+		{"Units", unitsLabel(rc.D)},
+	}))
+	return h
+}
+
+func unitsLabel(d Display) string {
+	return d.Length.Symbol + ", " + d.Transmissivity.Symbol + ", " + d.Conductivity.Symbol + "; times in min"
+}
+
+// shownEntry shows an entry in display unit u with its unit (as typed when
+// typed in u), or what was typed when it is not a number.
+func shownEntry(e project.Entry, u units.Unit) string {
+	if e.OK {
+		return shownText(e, u) + " " + u.Symbol
+	}
+	if e.Empty() {
+		return ""
+	}
+	return "“" + e.Text + "” (not a number)"
+}
+
+// reportSite is the generic site and wells section.
+func reportSite(rc *ReportContext) *v.Node {
+	p, t, L := rc.P, rc.T, rc.D.Length
+	sec := reportSection("report-site", "Site and wells",
+		reportPairs("", [][2]string{{"Site", orNone(p.Site)}, {"Aquifer thickness b", shownEntry(p.Thickness, L)}}))
+	if len(p.Wells) == 0 {
+		return sec.Add(v.TextEl("p", nil, "No wells entered."))
+	}
+	var rows [][]string
+	for _, w := range p.Wells {
+		kind := "pumping"
+		if w.Kind == project.Observation {
+			kind = "observation"
+		}
+		var role []string
+		if w.ID == t.PumpingWell {
+			role = append(role, "pumped")
+		}
+		if w.ID == t.ObservationWell {
+			role = append(role, "readings")
+		}
+		if len(role) > 0 {
+			kind += " (" + strings.Join(role, ", ") + ")"
+		}
+		screen := ""
+		if w.ScreenTop.OK || w.ScreenBottom.OK {
+			screen = orNone(shownEntry(w.ScreenTop, L)) + " – " + orNone(shownEntry(w.ScreenBottom, L))
+		}
+		dist := ""
+		if w.Kind == project.Observation {
+			dist = shownEntry(w.Distance, L)
+		}
+		rows = append(rows, []string{orNone(w.Name), kind, orNone(dist), orNone(shownEntry(w.Radius, L)),
+			orNone(screen), orNone(shownEntry(w.MPElevation, L))})
+	}
+	return sec.Add(reportTable("report-wells", []string{"Well", "Kind", "Distance r", "Radius", "Screen (depth below MP)", "MP elevation"}, rows))
+}
+
+// reportData is the generic data summary: the tape readings, the logger
+// records and the conditioning applied, then the kind's rows.
+func (a *App) reportData(rc *ReportContext, rk ReportKind) *v.Node {
+	t := rc.T
+	var rows [][2]string
+	if n := len(t.Readings); n > 0 {
+		bad := 0
+		for _, r := range t.Readings {
+			if !r.Blank() && !(r.TimeOK && r.DepthOK) {
+				bad++
+			}
+		}
+		s := countWord(n, "row") + " in the readings table"
+		if bad > 0 {
+			s += ", " + countWord(bad, "row") + " that could not be read"
+		}
+		rows = append(rows, [2]string{"Tape readings", s})
+	}
+	src := "the readings table"
+	if t.FitsLogger() {
+		src = "the logger record"
+	}
+	rows = append(rows, [2]string{"Fitted from", src})
+	if lg := t.Logger; lg != nil {
+		rec := func(label string, r *project.LoggerRecord) {
+			if r == nil {
+				return
+			}
+			s := "“" + r.File + "”: " + countWord(len(r.Time), "reading")
+			if r.Bad.Count > 0 {
+				s += ", " + countWord(r.Bad.Count, "row") + " skipped as unreadable"
+			}
+			rows = append(rows, [2]string{label, s})
+		}
+		rec("Logger record", lg.Water)
+		rec("Barometric record", lg.Baro)
+		if lg.Water != nil {
+			rows = append(rows, [2]string{"Conditioning applied", conditioningText(lg)})
+			if res, err := a.conditionedLocked(t); err != nil {
+				rows = append(rows, [2]string{"Conditioning result", settingSentence(err)})
+			} else {
+				s := "before pumping " + countWord(res.Antecedent.Len(), "reading") + ", pumping " +
+					countWord(res.Pumping.Len(), "reading") + ", recovery " + countWord(res.Recovery.Len(), "reading")
+				if th := res.ThinSummary(); th != "" {
+					s += "; thinned " + th
+				}
+				rows = append(rows, [2]string{"Conditioning result", s})
+				if len(res.Notes) > 0 {
+					rows = append(rows, [2]string{"Conditioning notes", strings.Join(res.Notes, " ")})
+				}
+			}
+		}
+	}
+	if rk.Data != nil {
+		rows = append(rows, rk.Data(a, rc)...)
+	}
+	return reportSection("report-data", "Data summary", reportPairs("report-data-table", rows))
+}
+
+// conditioningText lists the conditioning steps set on a logger record.
+func conditioningText(lg *project.LoggerData) string {
+	c := lg.Conditioning
+	var steps []string
+	switch staticMode(lg) {
+	case "mean":
+		steps = append(steps, "static level from the mean before pumping")
+	case "typed":
+		steps = append(steps, "static level typed ("+orNone(lg.Texts.Static)+")")
+	}
+	if c.Baro != nil {
+		steps = append(steps, "barometric record subtracted")
+	}
+	if c.Efficiency != nil {
+		steps = append(steps, "barometric efficiency "+strconv.FormatFloat(c.Efficiency.BE, 'g', 3, 64))
+	}
+	if c.Trend != nil {
+		steps = append(steps, "trend before pumping removed")
+	}
+	if c.Thin != nil {
+		steps = append(steps, "thinned in log time")
+	}
+	if len(c.Rates) > 1 {
+		steps = append(steps, countWord(len(c.Rates), "rate step"))
+	}
+	if len(steps) == 0 {
+		return "none"
+	}
+	return strings.Join(steps, "; ")
+}
+
+// reportFits is the table of fitted models: one row per fit, each
+// parameter with its 95 % interval in display units, the RMSE, AICc and,
+// with several fits of the same readings, ΔAICc; then each fit's notes.
+func reportFits(rc *ReportContext, fits []project.ModelFit) *v.Node {
+	sec := reportSection("report-fits", "Fitted parameters")
+	if len(fits) == 0 {
+		return sec.Add(v.TextEl("p", nil, "No fit yet."))
+	}
+	delta := deltaAICc(fits)
+	head := []string{"Model", "Parameter", "Value", "95 % interval", "RMSE", "Readings", "AICc"}
+	if delta != nil {
+		head = append(head, "ΔAICc")
+	}
+	var rows [][]string
+	for i, f := range fits {
+		for j, pe := range f.Params {
+			u := paramUnit(pe.Unit, rc.D)
+			sym := ""
+			if u.Symbol != "1" {
+				sym = " " + u.Symbol
+			}
+			row := []string{"", pe.Name, formatSig(u.FromSI(pe.Value), 3) + sym,
+				formatSig(u.FromSI(pe.Lower), 3) + " – " + formatSig(u.FromSI(pe.Upper), 3) + sym, "", "", ""}
+			if j == 0 {
+				row[0] = fitModelName(f.Model)
+				row[4] = formatSig(rc.D.Length.FromSI(f.RMSE), 3) + " " + rc.D.Length.Symbol
+				row[5] = strconv.Itoa(f.N)
+				if f.AICc != 0 {
+					row[6] = formatSig(f.AICc, 4)
+				}
+			}
+			if delta != nil {
+				d := ""
+				if j == 0 && !math.IsNaN(delta[i]) {
+					d = strconv.FormatFloat(delta[i], 'f', 1, 64)
+				}
+				row = append(row, d)
+			}
+			rows = append(rows, row)
+		}
+	}
+	sec.Add(reportTable("report-fits-table", head, rows))
+	if delta != nil {
+		sec.Add(v.TextEl("p", v.A("class", "ff-rsmall"), "ΔAICc is each model's small-sample Akaike criterion less the lowest among the fits of the same readings: lower is better supported; differences under about 2 do not tell the models apart. The choice of model stays with the hydrogeologist."))
+	}
+	for _, f := range fits {
+		if len(f.Warnings) == 0 {
+			continue
+		}
+		ul := v.El("ul", v.A("class", "ff-warnings"))
+		for _, w := range f.Warnings {
+			ul.Add(v.TextEl("li", nil, w))
+		}
+		sec.Add(v.TextEl("h3", nil, "Validity notes: "+fitModelName(f.Model)), ul)
+	}
+	return sec
+}
+
+// deltaAICc returns AICc − min AICc for each fit, among the fits with an
+// AICc and the same number of readings as the fit with the lowest; NaN
+// for the others. It returns nil unless at least two fits compare.
+func deltaAICc(fits []project.ModelFit) []float64 {
+	best := -1
+	for i, f := range fits {
+		if f.AICc != 0 && (best < 0 || f.AICc < fits[best].AICc) {
+			best = i
+		}
+	}
+	if best < 0 {
+		return nil
+	}
+	out := make([]float64, len(fits))
+	n := 0
+	for i, f := range fits {
+		out[i] = math.NaN()
+		if f.AICc != 0 && f.N == fits[best].N {
+			out[i] = f.AICc - fits[best].AICc
+			n++
+		}
+	}
+	if n < 2 {
+		return nil
+	}
+	return out
+}
+
+// paramUnit is the display unit of a parameter given in SI unit sym: the
+// project's units for lengths, transmissivity and conductivity, the SI
+// unit itself otherwise.
+func paramUnit(sym string, d Display) units.Unit {
+	switch sym {
+	case "m":
+		return d.Length
+	case "m²/s":
+		return d.Transmissivity
+	case "m/s":
+		return d.Conductivity
+	case "", "1", "–":
+		return mustUnit("1")
+	}
+	if u, ok := units.Lookup(sym); ok {
+		return u
+	}
+	return units.Unit{Symbol: sym, Factor: 1}
+}
+
+// fitModelName is the printed name of a model key of ModelFit.
+func fitModelName(m string) string {
+	switch project.Model(m) {
+	case project.Theis, project.CooperJacob:
+		return modelName(project.Model(m))
+	}
+	return m
+}
