@@ -109,6 +109,21 @@ func (c *Cholesky) SolveVec(x, b []float64) {
 	bl.Dtrsv(blas.Upper, blas.NoTrans, blas.NonUnit, n, c.u, n, x, 1)
 }
 
+// Whiten solves Uᵀz = x in place (BLAS Dtrsv). When A is the covariance
+// of a random vector x, z has the identity covariance: generalised least
+// squares with covariance A is ordinary least squares of whitened
+// residuals and whitened Jacobian columns.
+func (c *Cholesky) Whiten(x []float64) {
+	n := c.n
+	if n < 0 || len(x) != n {
+		panic("dense: Cholesky.Whiten: not factorised or length mismatch")
+	}
+	if n == 0 {
+		return
+	}
+	bl.Dtrsv(blas.Upper, blas.Trans, blas.NonUnit, n, c.u, n, x, 1)
+}
+
 // InverseTo sets the upper triangle of dst (n×n) to A⁻¹, one column at a
 // time by SolveVec.
 func (c *Cholesky) InverseTo(dst blas64.Symmetric) {

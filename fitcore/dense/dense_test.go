@@ -111,6 +111,17 @@ func TestCholesky(t *testing.T) {
 				t.Errorf("%d×%d (cond %.1e): x[%d] = %.17g, mat %.17g", sh.m, sh.n, ref.Cond(), j, x[j], wx.AtVec(j))
 			}
 		}
+		// Whiten: zᵀz = xᵀA⁻¹x, checked against mat's solve.
+		z := append([]float64(nil), b...)
+		c.Whiten(z)
+		zz, bx := 0.0, 0.0
+		for j := range z {
+			zz += z[j] * z[j]
+			bx += b[j] * wx.AtVec(j)
+		}
+		if d := relDiff(zz, bx); d > tol {
+			t.Errorf("%d×%d: zᵀz = %.17g, bᵀA⁻¹b by mat %.17g", sh.m, sh.n, zz, bx)
+		}
 		var winv mat.SymDense
 		_ = ref.InverseTo(&winv)
 		inv := newSym(sh.n)

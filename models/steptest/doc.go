@@ -49,6 +49,15 @@
 // fitcore) on the same specific drawdowns, so that n = 2 reproduces Jacob.
 // Both references are from memory.
 //
+// The summed drawdowns s_w,k share readings and trend lines, so their
+// errors are correlated and grow from step to step. Analyse derives their
+// covariance from the sensitivity of each s_w,k to the raw readings
+// (Analysis.DrawdownCov), and Analysis.Jacob and Analysis.Rorabaugh fit
+// the laws by generalised least squares with it, which gives intervals
+// that hold the true coefficients as often as they claim (the package's
+// coverage tests); Jacob and Rorabaugh on bare points fit by ordinary
+// least squares, whose intervals are then too narrow.
+//
 // The well efficiency at a rate Q is the share of the drawdown due to the
 // aquifer (linear) loss: E = BQ / s_w (common practice). LossFit.Efficiency
 // gives it with a confidence interval by the delta method; Law.RateFor

@@ -9,9 +9,10 @@ import (
 
 // A four-step test of our own invention at the Larkspur Mill production
 // well: 100-minute steps at 4, 8, 12 and 16 L/s, drawdown read by hand.
-// The drawdowns at equal duration, Jacob's B and C, the efficiency at the
-// planned 10 L/s, the rate at which the efficiency falls to 85 %, and the
-// well-condition class of C. (The readings were made with the Theis
+// The drawdowns at equal duration, Jacob's B and C (fitted with the
+// drawdowns' covariance), the efficiency at the planned 10 L/s, the rate
+// at which the efficiency falls to 85 %, and the well-condition class of
+// C. (The readings were made with the Theis
 // solution and a well loss of 3000 s²/m⁵, rounded to the millimetre.)
 func Example() {
 	steps := []steptest.Step{
@@ -44,7 +45,7 @@ func Example() {
 	for _, s := range a.Steps {
 		fmt.Printf("step %d: Q = %2.0f L/s  Δs = %.3f m  s_w = %.3f m\n", s.Index+1, s.Rate*1000, s.Increment, s.Drawdown)
 	}
-	f, err := steptest.Jacob(a.Points(), nil)
+	f, err := a.Jacob(nil) // generalised least squares with a.DrawdownCov
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -66,10 +67,10 @@ func Example() {
 	// step 2: Q =  8 L/s  Δs = 1.276 m  s_w = 2.456 m
 	// step 3: Q = 12 L/s  Δs = 1.371 m  s_w = 3.827 m
 	// step 4: Q = 16 L/s  Δs = 1.469 m  s_w = 5.296 m
-	// B = 283 s/m² (95% CI 282.7 … 283.3)
-	// C = 2998 s²/m⁵ (95% CI 2972 … 3023)
+	// B = 282.9 s/m² (95% CI 282.5 … 283.4)
+	// C = 3004 s²/m⁵ (95% CI 2971 … 3038)
 	// efficiency at 10 L/s: 90.4 % (90.3 … 90.5 %)
-	// efficiency 85 % at 16.7 L/s
+	// efficiency 85 % at 16.6 L/s
 	// C = 7.9 s²/ft⁵: mild deterioration
 }
 

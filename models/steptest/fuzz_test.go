@@ -81,7 +81,14 @@ func FuzzAnalyse(f *testing.F) {
 			}
 		}
 		pts := a.Points()
-		for _, fit := range []func([]Point, *FitSettings) (*LossFit, error){Jacob, Rorabaugh} {
+		if a.DrawdownCov == nil || a.DrawdownCov.SymmetricDim() != n {
+			t.Fatalf("drawdown covariance %v for %d steps", a.DrawdownCov, n)
+		}
+		for _, fit := range []func([]Point, *FitSettings) (*LossFit, error){
+			Jacob, Rorabaugh,
+			func(_ []Point, s *FitSettings) (*LossFit, error) { return a.Jacob(s) },
+			func(_ []Point, s *FitSettings) (*LossFit, error) { return a.Rorabaugh(s) },
+		} {
 			lf, err := fit(pts, nil)
 			if err != nil {
 				if err.Error() == "" {

@@ -7,6 +7,7 @@ import (
 
 	"fieldfit/models"
 
+	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat/distuv"
 )
 
@@ -101,6 +102,28 @@ type TrendLine struct {
 	// history of the rates up to this step, for the superposition axis.
 	starts, rates []float64
 	origin        float64
+	// the fit's sums, for the line's sensitivity to its readings: the
+	// axis value and weight of each reading, Σw, the weighted mean of X
+	// and Σw(X − X̄)².
+	x, w        []float64
+	sw, xm, sxx float64
+}
+
+// term is the sensitivity of a derived value to one raw reading: the
+// derivative c with respect to the drawdown of reading i.
+type term struct {
+	i int
+	c float64
+}
+
+// terms returns the sensitivity of the line's value at the axis value x
+// to its readings: Intercept + Slope·x = Σ_m h_m·w_m·(1/Σw + (x_m − X̄)(x − X̄)/Sxx).
+func (l *TrendLine) terms(x float64) []term {
+	ts := make([]term, len(l.Readings))
+	for m, i := range l.Readings {
+		ts[m] = term{i, l.w[m] * (1/l.sw + (l.x[m]-l.xm)*(x-l.xm)/l.sxx)}
+	}
+	return ts
 }
 
 // X returns the line's time axis at the time t (s on the readings' clock):
@@ -176,6 +199,15 @@ type Analysis struct {
 	// Excluded counts the readings left out by the exclusion mask or a
 	// zero weight.
 	Excluded int
+	// DrawdownCov is the covariance of the steps' Drawdowns (m²) when the
+	// readings have independent errors of variance 1/weight m² (1 m²
+	// without weights): Σᵢ (∂s_w,k/∂hᵢ)(∂s_w,l/∂hᵢ)/wᵢ over the readings
+	// hᵢ, each derivative taken through the interpolation at the equal
+	// duration and the trend lines. The summed increments share readings
+	// and trend lines, so the drawdowns are correlated and of unequal
+	// variance; FitSettings.Cov takes this matrix (up to a common factor,
+	// which the fits estimate) for generalised least squares.
+	DrawdownCov *mat.SymDense
 	// Caveats are plain sentences for the user about the analysis.
 	Caveats []string
 }
@@ -281,12 +313,18 @@ func Analyse(steps []Step, d models.Data, set *Settings) (*Analysis, error) {
 	}
 	a.Duration = dt
 
+	incr := make([][]term, ns) // the sensitivity of each Increment
 	for k := range a.Steps {
 		st := &a.Steps[k]
 		st.At = st.Start + dt
 		st.Observed = interpolate(d, st.Readings, st.Start, dt)
+		incr[k] = interpolateTerms(d, st.Readings, st.Start, dt)
 		if k > 0 {
-			st.Previous, st.PreviousErr = a.Steps[k-1].Line.At(st.At)
+			prev := a.Steps[k-1].Line
+			st.Previous, st.PreviousErr = prev.At(st.At)
+			for _, tm := range prev.terms(prev.X(st.At)) {
+				incr[k] = append(incr[k], term{tm.i, -tm.c})
+			}
 		}
 		st.Increment = st.Observed - st.Previous
 		st.Drawdown = st.Increment
@@ -304,6 +342,8 @@ func Analyse(steps []Step, d models.Data, set *Settings) (*Analysis, error) {
 		}
 		st.Line = l
 	}
+
+	a.DrawdownCov = drawdownCov(incr, d)
 
 	if set.Trend == TrendLogTime {
 		a.Caveats = append(a.Caveats, "The trend of each step is extended as a straight line in the log of the time since the test began; after the first step this line bends, so the increments are approximate. The superposition-time axis avoids this.")
@@ -438,6 +478,79 @@ func interpolate(d models.Data, g []int, start, dt float64) float64 {
 	return d.Value[g[j-1]] + f*(d.Value[g[j]]-d.Value[g[j-1]])
 }
 
+// interpolateTerms returns the sensitivity of interpolate's value to the
+// readings it uses.
+func interpolateTerms(d models.Data, g []int, start, dt float64) []term {
+	j := sort.Search(len(g), func(j int) bool { return d.Time[g[j]]-start >= dt })
+	if j == len(g) {
+		j = len(g) - 1
+	}
+	tj := d.Time[g[j]] - start
+	if tj == dt || j == 0 {
+		return []term{{g[j], 1}}
+	}
+	ti := d.Time[g[j-1]] - start
+	f := math.Log(dt/ti) / math.Log(tj/ti)
+	return []term{{g[j-1], 1 - f}, {g[j], f}}
+}
+
+// drawdownCov returns the covariance of the summed increments
+// s_w,k = Σ_{j≤k} Δs_j for readings of variance 1/weight, from the
+// sensitivities incr of the increments: V_kl = Σ_{j≤k} Σ_{m≤l} C_jm with
+// C_jm = Σᵢ c_ij·c_im/wᵢ the covariance of the increments.
+func drawdownCov(incr [][]term, d models.Data) *mat.SymDense {
+	ns := len(incr)
+	// Each increment's terms by reading, a reading once.
+	byIdx := make([][]term, ns)
+	for j, ts := range incr {
+		ts = append([]term(nil), ts...)
+		sort.Slice(ts, func(a, b int) bool { return ts[a].i < ts[b].i })
+		out := ts[:0]
+		for _, tm := range ts {
+			if n := len(out); n > 0 && out[n-1].i == tm.i {
+				out[n-1].c += tm.c
+				continue
+			}
+			out = append(out, tm)
+		}
+		byIdx[j] = out
+	}
+	c := make([]float64, ns*ns)
+	for j := 0; j < ns; j++ {
+		for m := j; m < ns; m++ {
+			// Merge the two sorted lists.
+			a, b := byIdx[j], byIdx[m]
+			s := 0.0
+			for p, q := 0, 0; p < len(a) && q < len(b); {
+				switch {
+				case a[p].i < b[q].i:
+					p++
+				case a[p].i > b[q].i:
+					q++
+				default:
+					s += a[p].c * b[q].c / weight(d, a[p].i)
+					p++
+					q++
+				}
+			}
+			c[j*ns+m], c[m*ns+j] = s, s
+		}
+	}
+	// V = L·C·Lᵀ, L the lower triangle of ones: running sums of the rows,
+	// then of the columns.
+	for j := 0; j < ns; j++ {
+		for m := 1; m < ns; m++ {
+			c[j*ns+m] += c[j*ns+m-1]
+		}
+	}
+	for j := 1; j < ns; j++ {
+		for m := 0; m < ns; m++ {
+			c[j*ns+m] += c[(j-1)*ns+m]
+		}
+	}
+	return mat.NewSymDense(ns, c)
+}
+
 // trendLine fits the trend of the last step of hist to its late readings g.
 func trendLine(hist []Step, axis Trend, d models.Data, g []int, late, conf float64) (*TrendLine, *Error) {
 	k := len(hist) - 1
@@ -485,6 +598,11 @@ func trendLine(hist []Step, axis Trend, d models.Data, g []int, late, conf float
 	}
 	l.Slope = sxy / sxx
 	l.Intercept = ym - l.Slope*xm
+	l.x, l.sw, l.xm, l.sxx = x, sw, xm, sxx
+	l.w = make([]float64, len(use))
+	for m, i := range use {
+		l.w[m] = weight(d, i)
+	}
 	l.PerCycle = l.Slope * math.Ln10
 	var ssr float64
 	for m, i := range use {
