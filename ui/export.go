@@ -2,7 +2,7 @@ package ui
 
 import (
 	"context"
-	"sort"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -210,58 +210,47 @@ func (a *App) ExportPlot(svg *v.Node, name, format string) {
 // the page (id, class, data-*) are left out; text and attribute values are
 // escaped by plot.Node.SVG.
 func svgDocument(n *v.Node) (doc string, w, h float64) {
-	if f := strings.Fields(n.Attrs["viewBox"]); len(f) == 4 {
+	f := strings.Fields(n.Attrs["viewBox"])
+	if len(f) == 4 {
 		w, _ = strconv.ParseFloat(f[2], 64)
 		h, _ = strconv.ParseFloat(f[3], 64)
 	}
 	root := toPlotNode(n)
-	if w > 0 && h > 0 {
-		for i := range root.Attrs {
-			switch root.Attrs[i].Name {
-			case "width":
-				root.Attrs[i].Value = strconv.FormatFloat(w, 'g', -1, 64)
-			case "height":
-				root.Attrs[i].Value = strconv.FormatFloat(h, 'g', -1, 64)
-			}
-		}
-		if root.Attr("height") == "" {
-			root.Attrs = append(root.Attrs, plot.Attr{Name: "height", Value: strconv.FormatFloat(h, 'g', -1, 64)})
+	attrs := []plot.Attr{{Name: "xmlns", Value: v.SVGNS}}
+	for _, a := range root.Attrs {
+		if len(f) != 4 || a.Name != "width" && a.Name != "height" {
+			attrs = append(attrs, a)
 		}
 	}
-	if root.Attr("xmlns") == "" {
-		root.Attrs = append([]plot.Attr{{Name: "xmlns", Value: v.SVGNS}}, root.Attrs...)
+	if len(f) == 4 {
+		attrs = append(attrs, plot.Attr{Name: "width", Value: f[2]}, plot.Attr{Name: "height", Value: f[3]})
 	}
+	root.Attrs = attrs
 	return `<?xml version="1.0" encoding="UTF-8"?>` + "\n" + root.SVG(), w, h
 }
 
 // toPlotNode turns a view tree (an svg element and its descendants) back
-// into a plot.Node tree for serialising: attributes in name order with
-// xmlns first, the page's own attributes dropped, text children joined
-// into the element's text.
+// into a plot.Node tree for serialising: attributes in name order, the
+// page's own attributes (id, class, data-*) and xmlns dropped, text
+// children joined into the element's text.
 func toPlotNode(n *v.Node) *plot.Node {
 	out := &plot.Node{Tag: n.Tag, Text: n.Text}
 	names := make([]string, 0, len(n.Attrs))
 	for k := range n.Attrs {
-		if k == "id" || k == "class" || strings.HasPrefix(k, "data-") {
-			continue
+		if k != "id" && k != "class" && k != "xmlns" && !strings.HasPrefix(k, "data-") {
+			names = append(names, k)
 		}
-		names = append(names, k)
 	}
-	sort.Slice(names, func(i, j int) bool {
-		if (names[i] == "xmlns") != (names[j] == "xmlns") {
-			return names[i] == "xmlns"
-		}
-		return names[i] < names[j]
-	})
+	slices.Sort(names)
 	for _, k := range names {
 		out.Attrs = append(out.Attrs, plot.Attr{Name: k, Value: n.Attrs[k]})
 	}
 	for _, c := range n.Children {
 		if c.Tag == "" {
 			out.Text += c.Text
-			continue
+		} else {
+			out.Children = append(out.Children, toPlotNode(c))
 		}
-		out.Children = append(out.Children, toPlotNode(c))
 	}
 	return out
 }

@@ -4,7 +4,9 @@ package ui
 
 import (
 	"context"
+	"encoding/base64"
 	"errors"
+	"strings"
 	"syscall/js"
 
 	"honnef.co/go/js/dom/v2"
@@ -21,13 +23,16 @@ func printPage() {
 // rasterPNG draws an SVG document into a canvas of w × h pixels on white
 // and returns it as PNG: the SVG is loaded as an <img> from a blob: URL
 // (the page's CSP allows img-src blob:), decoded, drawn, and read back
-// with canvas.toBlob. It waits for the browser: call it from a goroutine.
-func rasterPNG(ctx context.Context, svg []byte, w, h float64) ([]byte, error) {
+// with canvas.toDataURL. It waits for the browser: call it from a
+// goroutine.
+func rasterPNG(ctx context.Context, svg []byte, w, h float64) (png []byte, err error) {
+	defer func() {
+		if recover() != nil { // a JavaScript exception (a canvas the browser refuses to read)
+			png, err = nil, errors.New("the browser refused to draw the plot")
+		}
+	}()
 	g := js.Global()
-	arr := g.Get("Uint8Array").New(len(svg))
-	js.CopyBytesToJS(arr, svg)
-	blob := g.Get("Blob").New(g.Get("Array").New(arr), map[string]any{"type": "image/svg+xml"})
-	url := g.Get("URL").Call("createObjectURL", blob)
+	url := g.Get("URL").Call("createObjectURL", g.Get("Blob").New([]any{string(svg)}, map[string]any{"type": "image/svg+xml"}))
 	defer g.Get("URL").Call("revokeObjectURL", url)
 	img := g.Get("Image").New()
 	img.Set("src", url)
@@ -35,41 +40,12 @@ func rasterPNG(ctx context.Context, svg []byte, w, h float64) ([]byte, error) {
 		return nil, errors.New("the browser could not read the plot as an image")
 	}
 	canvas := g.Get("document").Call("createElement", "canvas")
-	canvas.Set("width", int(w))
-	canvas.Set("height", int(h))
-	c2d := canvas.Call("getContext", "2d")
-	if !c2d.Truthy() {
-		return nil, errors.New("this browser has no 2D canvas")
-	}
-	c2d.Set("fillStyle", "#ffffff")
-	c2d.Call("fillRect", 0, 0, int(w), int(h))
-	c2d.Call("drawImage", img, 0, 0, int(w), int(h))
-	ch := make(chan js.Value, 1)
-	cb := js.FuncOf(func(_ js.Value, args []js.Value) any {
-		v := js.Null()
-		if len(args) > 0 {
-			v = args[0]
-		}
-		ch <- v
-		return nil
-	})
-	canvas.Call("toBlob", cb, "image/png")
-	var png js.Value
-	select {
-	case png = <-ch:
-		cb.Release()
-	case <-ctx.Done():
-		// cb stays alive for the browser's late call.
-		return nil, ctx.Err()
-	}
-	if !png.Truthy() {
-		return nil, errors.New("the browser could not make the PNG")
-	}
-	buf, err := view.Await(ctx, png.Call("arrayBuffer"))
-	if err != nil {
-		return nil, err
-	}
-	out := make([]byte, png.Get("size").Int())
-	js.CopyBytesToGo(out, g.Get("Uint8Array").New(buf))
-	return out, nil
+	canvas.Set("width", w)
+	canvas.Set("height", h)
+	c := canvas.Call("getContext", "2d")
+	c.Set("fillStyle", "#fff")
+	c.Call("fillRect", 0, 0, w, h)
+	c.Call("drawImage", img, 0, 0, w, h)
+	_, data, _ := strings.Cut(canvas.Call("toDataURL", "image/png").String(), ",")
+	return base64.StdEncoding.DecodeString(data)
 }

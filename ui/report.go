@@ -168,68 +168,59 @@ func (a *App) renderReport() *v.Node {
 	rk := reportKinds[t.Kind]
 	paper := a.paperLocked()
 
-	ctl := v.El("div", v.A("id", "report-controls", "class", "ff-card ff-noprint"))
-	ctl.Add(v.El("div", v.A("class", "ff-row"),
-		selectField("report-paper", "Paper", paper, []option{{PaperA4, "A4"}, {PaperLetter, "US Letter"}}, "", a.SetPaper)))
 	row := v.El("div", v.A("class", "ff-row"))
 	if a.opt.Print != nil {
 		row.Add(button("report-print", "Print or save as PDF", "ff-btn ff-primary", a.PrintReport))
 	}
-	if a.opt.Download != nil {
-		if rk.Readings != nil {
-			row.Add(button("export-readings", "Readings as CSV", "ff-btn", func() { a.ExportCSV("readings") }))
-		}
-		if rk.Curves != nil {
-			row.Add(button("export-curves", "Fitted curves as CSV", "ff-btn", func() { a.ExportCSV("curves") }))
+	for _, e := range []struct {
+		what, label string
+		on          bool
+	}{{"readings", "Readings as CSV", rk.Readings != nil}, {"curves", "Fitted curves as CSV", rk.Curves != nil}} {
+		if e.on && a.opt.Download != nil {
+			what := e.what
+			row.Add(button("export-"+what, e.label, "ff-btn", func() { a.ExportCSV(what) }))
 		}
 	}
-	ctl.Add(row)
-	ctl.Add(v.TextEl("p", v.A("class", "ff-hint"), "The report below is what prints. Each plot can also be saved on its own, as SVG (for drawings) or PNG (for documents)."))
-	div.Add(ctl)
+	div.Add(v.El("div", v.A("id", "report-controls", "class", "ff-card ff-noprint"),
+		selectField("report-paper", "Paper", paper, []option{{PaperA4, "A4"}, {PaperLetter, "US Letter"}}, "", a.SetPaper),
+		row, v.TextEl("p", v.A("class", "ff-hint"), "The report below is what prints. Each plot can also be saved on its own, as SVG (for drawings) or PNG (for documents).")))
 
-	art := v.El("article", v.A("id", "report", "class", "ff-report", "data-paper", paper))
-	art.Add(a.reportTitle(rc))
-	art.Add(reportCaution("report-caution-top"))
-	art.Add(reportSite(rc))
-	art.Add(call(a, rc, rk.Test)...)
-	art.Add(a.reportData(rc, rk))
-	if plots := call(a, rc, rk.Plots); len(plots) > 0 {
-		sec := reportSection("report-plots", "Plots", plots...)
-		sec.Set("class", "ff-rsec ff-rplots")
-		a.addPlotExports(sec, rc)
-		art.Add(sec)
+	art := v.El("article", v.A("id", "report", "class", "ff-report", "data-paper", paper),
+		a.reportTitle(rc), reportCaution("report-caution-top"), reportSite(rc))
+	fits := func(a *App, rc *ReportContext) []*v.Node {
+		fs := rc.T.Fits
+		if rk.Fits != nil {
+			fs = rk.Fits(a, rc)
+		}
+		return []*v.Node{reportFits(rc, fs)}
 	}
-	var fits []project.ModelFit
-	if rk.Fits != nil {
-		fits = rk.Fits(a, rc)
-	} else {
-		fits = t.Fits
+	for i, f := range []func(*App, *ReportContext) []*v.Node{rk.Test, reportData, rk.Plots, fits, rk.After} {
+		if f == nil {
+			continue
+		}
+		ns := f(a, rc)
+		if i == 2 && len(ns) > 0 { // the plots
+			sec := reportSection("report-plots", "Plots", ns...)
+			sec.Set("class", "ff-rsec ff-rplots")
+			a.addPlotExports(sec, rc)
+			ns = []*v.Node{sec}
+		}
+		art.Add(ns...)
 	}
-	art.Add(reportFits(rc, fits))
-	art.Add(call(a, rc, rk.After)...)
 	if strings.TrimSpace(p.Notes) != "" {
 		art.Add(reportSection("report-notes", "Notes", v.TextEl("p", v.A("class", "ff-rnotes"), p.Notes)))
 	}
-	art.Add(reportCaution("report-caution"))
-	art.Add(v.TextEl("p", v.A("class", "ff-rfoot"), "Made with Fieldfit on "+rc.Now.Local().Format("2006-01-02 15:04")+
-		" from project revision "+strconv.FormatInt(p.Rev, 10)+"."))
+	art.Add(reportCaution("report-caution"), v.TextEl("p", v.A("class", "ff-rfoot"), "Made with Fieldfit on "+
+		rc.Now.Local().Format(dateTime)+" from project revision "+strconv.FormatInt(p.Rev, 10)+"."))
 	return div.Add(art)
 }
 
-func call(a *App, rc *ReportContext, f func(*App, *ReportContext) []*v.Node) []*v.Node {
-	if f == nil {
-		return nil
-	}
-	return f(a, rc)
-}
+// dateTime is the layout of the report's dates and times.
+const dateTime = "2006-01-02 15:04"
 
 // reportSection is a titled section of the report.
 func reportSection(id, title string, children ...*v.Node) *v.Node {
-	s := v.El("section", v.A("class", "ff-rsec"), v.TextEl("h2", nil, title))
-	if id != "" {
-		s.Set("id", id)
-	}
-	return s.Add(children...)
+	return v.El("section", v.A("id", id, "class", "ff-rsec"), v.TextEl("h2", nil, title)).Add(children...)
 }
 
 // reportPairs is a two-column table of labels and values; rows with an
@@ -237,37 +228,29 @@ func reportSection(id, title string, children ...*v.Node) *v.Node {
 func reportPairs(id string, rows [][2]string) *v.Node {
 	body := v.El("tbody", nil)
 	for _, r := range rows {
-		if r[1] == "" {
-			continue
+		if r[1] != "" {
+			body.Add(v.El("tr", nil, v.TextEl("th", v.A("scope", "row"), r[0]), v.TextEl("td", nil, r[1])))
 		}
-		body.Add(v.El("tr", nil, v.TextEl("th", v.A("scope", "row"), r[0]), v.TextEl("td", nil, r[1])))
 	}
-	tb := v.El("table", v.A("class", "ff-rpairs"), body)
-	if id != "" {
-		tb.Set("id", id)
-	}
-	return tb
+	return v.El("table", v.A("id", id, "class", "ff-rpairs"), body)
 }
 
 // reportTable is a table with a header row.
 func reportTable(id string, head []string, rows [][]string) *v.Node {
-	tr := v.El("tr", nil)
-	for _, h := range head {
-		tr.Add(v.TextEl("th", v.A("scope", "col"), h))
-	}
 	body := v.El("tbody", nil)
-	for _, r := range rows {
-		row := v.El("tr", nil)
-		for _, c := range r {
-			row.Add(v.TextEl("td", nil, c))
+	for _, r := range append([][]string{head}, rows...) {
+		tag, tr := "th", v.El("tr", nil)
+		if len(body.Children) > 0 {
+			tag = "td"
 		}
-		body.Add(row)
+		for _, c := range r {
+			tr.Add(v.TextEl(tag, nil, c))
+		}
+		body.Add(tr)
 	}
-	tb := v.El("table", v.A("class", "ff-rtable"), v.El("thead", nil, tr), body)
-	if id != "" {
-		tb.Set("id", id)
-	}
-	return tb
+	head0 := body.Children[0]
+	body.Children = body.Children[1:]
+	return v.El("table", v.A("id", id, "class", "ff-rtable"), v.El("thead", nil, head0), body)
 }
 
 func reportCaution(id string) *v.Node {
@@ -288,33 +271,36 @@ func (a *App) reportTitle(rc *ReportContext) *v.Node {
 	if strings.TrimSpace(name) == "" {
 		name = "Test " + strconv.Itoa(a.testIdx+1)
 	}
-	h := v.El("header", v.A("class", "ff-rhead"),
+	d := rc.D
+	return v.El("header", v.A("class", "ff-rhead"),
 		v.TextEl("p", v.A("class", "ff-rkind"), "Field test report · "+kindLabel(t.Kind)),
-		v.TextEl("h1", v.A("id", "report-title"), name))
-	start := startText(t)
-	h.Add(reportPairs("report-ident", [][2]string{
-		{"Project", orNone(p.Name)},
-		{"Site", orNone(p.Site)},
-		{"Test started", start},
-		{"Project last changed", p.Changed.Local().Format("2006-01-02 15:04")},
-		{"Report made", rc.Now.Local().Format("2006-01-02 15:04")},
-		{"Units", unitsLabel(rc.D)},
-	}))
-	return h
+		v.TextEl("h1", v.A("id", "report-title"), name),
+		reportPairs("report-ident", [][2]string{
+			{"Project", orNone(p.Name)},
+			{"Site", orNone(p.Site)},
+			{"Test started", startText(t)},
+			{"Project last changed", p.Changed.Local().Format(dateTime)},
+			{"Report made", rc.Now.Local().Format(dateTime)},
+			{"Units", d.Length.Symbol + ", " + d.Transmissivity.Symbol + ", " + d.Conductivity.Symbol + "; times in min"},
+		}))
 }
 
-func unitsLabel(d Display) string {
-	return d.Length.Symbol + ", " + d.Transmissivity.Symbol + ", " + d.Conductivity.Symbol + "; times in min"
+// startText is when the test started, as a date and time.
+func startText(t *project.Test) string {
+	if t.Start.IsZero() {
+		return t.StartText
+	}
+	return t.Start.Format(dateTime)
 }
 
 // shownEntry shows an entry in display unit u with its unit (as typed when
-// typed in u), or what was typed when it is not a number.
+// typed in u), what was typed when it is not a number, or a dash.
 func shownEntry(e project.Entry, u units.Unit) string {
-	if e.OK {
+	switch {
+	case e.OK:
 		return shownText(e, u) + " " + u.Symbol
-	}
-	if e.Empty() {
-		return ""
+	case e.Empty():
+		return "—"
 	}
 	return "“" + e.Text + "” (not a number)"
 }
@@ -322,187 +308,135 @@ func shownEntry(e project.Entry, u units.Unit) string {
 // reportSite is the generic site and wells section.
 func reportSite(rc *ReportContext) *v.Node {
 	p, t, L := rc.P, rc.T, rc.D.Length
-	sec := reportSection("report-site", "Site and wells",
-		reportPairs("", [][2]string{{"Site", orNone(p.Site)}, {"Aquifer thickness b", shownEntry(p.Thickness, L)}}))
-	if len(p.Wells) == 0 {
-		return sec.Add(v.TextEl("p", nil, "No wells entered."))
-	}
 	var rows [][]string
 	for _, w := range p.Wells {
-		kind := "pumping"
+		kind, dist := "pumping", "—"
 		if w.Kind == project.Observation {
-			kind = "observation"
-		}
-		var role []string
-		if w.ID == t.PumpingWell {
-			role = append(role, "pumped")
+			kind, dist = "observation", shownEntry(w.Distance, L)
 		}
 		if w.ID == t.ObservationWell {
-			role = append(role, "readings")
+			kind += ", readings"
 		}
-		if len(role) > 0 {
-			kind += " (" + strings.Join(role, ", ") + ")"
-		}
-		screen := ""
-		if w.ScreenTop.OK || w.ScreenBottom.OK {
-			screen = orNone(shownEntry(w.ScreenTop, L)) + " – " + orNone(shownEntry(w.ScreenBottom, L))
-		}
-		dist := ""
-		if w.Kind == project.Observation {
-			dist = shownEntry(w.Distance, L)
-		}
-		rows = append(rows, []string{orNone(w.Name), kind, orNone(dist), orNone(shownEntry(w.Radius, L)),
-			orNone(screen), orNone(shownEntry(w.MPElevation, L))})
+		rows = append(rows, []string{orNone(w.Name), kind, dist, shownEntry(w.Radius, L),
+			shownEntry(w.ScreenTop, L) + " – " + shownEntry(w.ScreenBottom, L), shownEntry(w.MPElevation, L)})
 	}
-	return sec.Add(reportTable("report-wells", []string{"Well", "Kind", "Distance r", "Radius", "Screen (depth below MP)", "MP elevation"}, rows))
+	return reportSection("report-site", "Site and wells",
+		reportPairs("report-site-table", [][2]string{{"Site", orNone(p.Site)}, {"Aquifer thickness b", shownEntry(p.Thickness, L)}}),
+		reportTable("report-wells", []string{"Well", "Kind", "Distance r", "Radius", "Screen (depth below MP)", "MP elevation"}, rows))
 }
 
 // reportData is the generic data summary: the tape readings, the logger
 // records and the conditioning applied, then the kind's rows.
-func (a *App) reportData(rc *ReportContext, rk ReportKind) *v.Node {
+func reportData(a *App, rc *ReportContext) []*v.Node {
 	t := rc.T
-	var rows [][2]string
-	if n := len(t.Readings); n > 0 {
-		bad := 0
-		for _, r := range t.Readings {
-			if !r.Blank() && !(r.TimeOK && r.DepthOK) {
-				bad++
-			}
+	bad := 0
+	for _, r := range t.Readings {
+		if !r.Blank() && !(r.TimeOK && r.DepthOK) {
+			bad++
 		}
-		s := countWord(n, "row") + " in the readings table"
-		if bad > 0 {
-			s += ", " + countWord(bad, "row") + " that could not be read"
-		}
-		rows = append(rows, [2]string{"Tape readings", s})
 	}
 	src := "the readings table"
 	if t.FitsLogger() {
 		src = "the logger record"
 	}
-	rows = append(rows, [2]string{"Fitted from", src})
-	if lg := t.Logger; lg != nil {
-		rec := func(label string, r *project.LoggerRecord) {
-			if r == nil {
-				return
-			}
-			s := "“" + r.File + "”: " + countWord(len(r.Time), "reading")
-			if r.Bad.Count > 0 {
-				s += ", " + countWord(r.Bad.Count, "row") + " skipped as unreadable"
-			}
-			rows = append(rows, [2]string{label, s})
-		}
-		rec("Logger record", lg.Water)
-		rec("Barometric record", lg.Baro)
-		if lg.Water != nil {
-			rows = append(rows, [2]string{"Conditioning applied", conditioningText(lg)})
-			if res, err := a.conditionedLocked(t); err != nil {
-				rows = append(rows, [2]string{"Conditioning result", settingSentence(err)})
-			} else {
-				s := "before pumping " + countWord(res.Antecedent.Len(), "reading") + ", pumping " +
-					countWord(res.Pumping.Len(), "reading") + ", recovery " + countWord(res.Recovery.Len(), "reading")
-				if th := res.ThinSummary(); th != "" {
-					s += "; thinned " + th
-				}
-				rows = append(rows, [2]string{"Conditioning result", s})
-				if len(res.Notes) > 0 {
-					rows = append(rows, [2]string{"Conditioning notes", strings.Join(res.Notes, " ")})
-				}
+	rows := [][2]string{
+		{"Tape readings", countWord(len(t.Readings), "row") + " in the readings table, " + countWord(bad, "row") + " that could not be read"},
+		{"Fitted from", src},
+	}
+	if lg := t.Logger; lg != nil && lg.Water != nil {
+		for i, r := range []*project.LoggerRecord{lg.Water, lg.Baro} {
+			if r != nil {
+				rows = append(rows, [2]string{[]string{"Logger record", "Barometric record"}[i],
+					"“" + r.File + "”: " + countWord(len(r.Time), "reading") + ", " + countWord(r.Bad.Count, "row") + " skipped as unreadable"})
 			}
 		}
+		s := conditioningText(lg)
+		if res, err := a.conditionedLocked(t); err != nil {
+			s += ". " + settingSentence(err)
+		} else {
+			s += ". Before pumping " + countWord(res.Antecedent.Len(), "reading") + ", pumping " +
+				countWord(res.Pumping.Len(), "reading") + ", recovery " + countWord(res.Recovery.Len(), "reading") +
+				". " + res.ThinSummary() + " " + strings.Join(res.Notes, " ")
+		}
+		rows = append(rows, [2]string{"Conditioning applied", s})
 	}
-	if rk.Data != nil {
-		rows = append(rows, rk.Data(a, rc)...)
+	if reportKinds[t.Kind].Data != nil {
+		rows = append(rows, reportKinds[t.Kind].Data(a, rc)...)
 	}
-	return reportSection("report-data", "Data summary", reportPairs("report-data-table", rows))
+	return []*v.Node{reportSection("report-data", "Data summary", reportPairs("report-data-table", rows))}
 }
 
 // conditioningText lists the conditioning steps set on a logger record.
 func conditioningText(lg *project.LoggerData) string {
 	c := lg.Conditioning
+	mode := staticMode(lg)
 	var steps []string
-	switch staticMode(lg) {
-	case "mean":
-		steps = append(steps, "static level from the mean before pumping")
-	case "typed":
-		steps = append(steps, "static level typed ("+orNone(lg.Texts.Static)+")")
-	}
-	if c.Baro != nil {
-		steps = append(steps, "barometric record subtracted")
-	}
-	if c.Efficiency != nil {
-		steps = append(steps, "barometric efficiency "+strconv.FormatFloat(c.Efficiency.BE, 'g', 3, 64))
-	}
-	if c.Trend != nil {
-		steps = append(steps, "trend before pumping removed")
-	}
-	if c.Thin != nil {
-		steps = append(steps, "thinned in log time")
-	}
-	if len(c.Rates) > 1 {
-		steps = append(steps, countWord(len(c.Rates), "rate step"))
+	for _, s := range []struct {
+		on   bool
+		text string
+	}{
+		{mode == "mean", "static level from the mean before pumping"},
+		{mode == "typed", "static level typed (" + lg.Texts.Static + ")"},
+		{c.Baro != nil, "barometric record subtracted"},
+		{c.Efficiency != nil, "barometric efficiency " + lg.Texts.BE},
+		{c.Trend != nil, "trend before pumping removed"},
+		{c.Thin != nil, "thinned in log time"},
+		{len(c.Rates) > 1, countWord(len(c.Rates), "rate step")},
+	} {
+		if s.on {
+			steps = append(steps, s.text)
+		}
 	}
 	if len(steps) == 0 {
-		return "none"
+		return "None"
 	}
 	return strings.Join(steps, "; ")
 }
 
-// reportFits is the table of fitted models: one row per fit, each
-// parameter with its 95 % interval in display units, the RMSE, AICc and,
-// with several fits of the same readings, ΔAICc; then each fit's notes.
+// reportFits is the table of fitted models: one row per parameter, each
+// with its 95 % interval in display units, and per model its RMSE, AICc
+// and, with several fits of the same readings, ΔAICc; then each fit's
+// validity notes.
 func reportFits(rc *ReportContext, fits []project.ModelFit) *v.Node {
 	sec := reportSection("report-fits", "Fitted parameters")
 	if len(fits) == 0 {
 		return sec.Add(v.TextEl("p", nil, "No fit yet."))
 	}
 	delta := deltaAICc(fits)
-	head := []string{"Model", "Parameter", "Value", "95 % interval", "RMSE", "Readings", "AICc"}
-	if delta != nil {
-		head = append(head, "ΔAICc")
-	}
 	var rows [][]string
+	var notes []*v.Node
 	for i, f := range fits {
-		for j, pe := range f.Params {
+		name := fitModelName(f.Model)
+		model := []string{name, formatSig(rc.D.Length.FromSI(f.RMSE), 3) + " " + rc.D.Length.Symbol, strconv.Itoa(f.N), "", ""}
+		if f.AICc != 0 {
+			model[3] = formatSig(f.AICc, 4)
+		}
+		if delta != nil && !math.IsNaN(delta[i]) {
+			model[4] = strconv.FormatFloat(delta[i], 'f', 1, 64)
+		}
+		for _, pe := range f.Params {
 			u := paramUnit(pe.Unit, rc.D)
-			sym := ""
-			if u.Symbol != "1" {
-				sym = " " + u.Symbol
+			sym := " " + u.Symbol
+			if u.Symbol == "1" {
+				sym = ""
 			}
-			row := []string{"", pe.Name, formatSig(u.FromSI(pe.Value), 3) + sym,
-				formatSig(u.FromSI(pe.Lower), 3) + " – " + formatSig(u.FromSI(pe.Upper), 3) + sym, "", "", ""}
-			if j == 0 {
-				row[0] = fitModelName(f.Model)
-				row[4] = formatSig(rc.D.Length.FromSI(f.RMSE), 3) + " " + rc.D.Length.Symbol
-				row[5] = strconv.Itoa(f.N)
-				if f.AICc != 0 {
-					row[6] = formatSig(f.AICc, 4)
-				}
+			rows = append(rows, []string{model[0], pe.Name, formatSig(u.FromSI(pe.Value), 3) + sym,
+				formatSig(u.FromSI(pe.Lower), 3) + " – " + formatSig(u.FromSI(pe.Upper), 3) + sym, model[1], model[2], model[3], model[4]})
+			model = []string{"", "", "", "", ""}
+		}
+		if len(f.Warnings) > 0 {
+			ul := v.El("ul", v.A("class", "ff-warnings"))
+			for _, w := range f.Warnings {
+				ul.Add(v.TextEl("li", nil, w))
 			}
-			if delta != nil {
-				d := ""
-				if j == 0 && !math.IsNaN(delta[i]) {
-					d = strconv.FormatFloat(delta[i], 'f', 1, 64)
-				}
-				row = append(row, d)
-			}
-			rows = append(rows, row)
+			notes = append(notes, v.TextEl("h3", nil, "Validity notes: "+name), ul)
 		}
 	}
-	sec.Add(reportTable("report-fits-table", head, rows))
+	sec.Add(reportTable("report-fits-table", []string{"Model", "Parameter", "Value", "95 % interval", "RMSE", "Readings", "AICc", "ΔAICc"}, rows))
 	if delta != nil {
 		sec.Add(v.TextEl("p", v.A("class", "ff-rsmall"), "ΔAICc is each model's small-sample Akaike criterion less the lowest among the fits of the same readings: lower is better supported; differences under about 2 do not tell the models apart. The choice of model stays with the hydrogeologist."))
 	}
-	for _, f := range fits {
-		if len(f.Warnings) == 0 {
-			continue
-		}
-		ul := v.El("ul", v.A("class", "ff-warnings"))
-		for _, w := range f.Warnings {
-			ul.Add(v.TextEl("li", nil, w))
-		}
-		sec.Add(v.TextEl("h3", nil, "Validity notes: "+fitModelName(f.Model)), ul)
-	}
-	return sec
+	return sec.Add(notes...)
 }
 
 // deltaAICc returns AICc − min AICc for each fit, among the fits with an

@@ -28,90 +28,70 @@ func init() {
 }
 
 func wellName(p *project.Project, id string) string {
-	w := p.Well(id)
-	if w == nil {
-		return ""
+	if w := p.Well(id); w != nil {
+		return orNone(w.Name)
 	}
-	return orNone(w.Name)
+	return "—"
 }
 
-// startText is when the test started, as a date and time.
-func startText(t *project.Test) string {
-	if t.Start.IsZero() {
-		return t.StartText
+// minutesText is a time in minutes, or alt when it is zero (not set).
+func minutesText(s float64, alt string) string {
+	if s == 0 {
+		return alt
 	}
-	return t.Start.Format("2006-01-02 15:04")
+	return formatSig(s/units.Minute, 3) + " min"
 }
 
 func pumpReportTest(a *App, rc *ReportContext) []*v.Node {
 	p, t, d := rc.P, rc.T, rc.D
-	rate := ""
-	if !t.Rate.Empty() {
-		rate = shownEntry(t.Rate, rateUnit(t, d))
-	}
-	obs := wellName(p, t.ObservationWell)
-	if w := p.Well(t.ObservationWell); w != nil && w.Kind == project.Pumping {
-		obs += " (the pumping well itself)"
-	}
 	times := "elapsed minutes"
 	if timeMode(t) == project.ClockTime {
 		times = "clock time"
 	}
 	f := t.Fit
-	window := "all readings"
-	if f.WindowStart > 0 || f.WindowEnd > 0 {
-		lo, hi := "first reading", "last reading"
-		if f.WindowStart > 0 {
-			lo = formatSig(f.WindowStart/units.Minute, 3) + " min"
-		}
-		if f.WindowEnd > 0 {
-			hi = formatSig(f.WindowEnd/units.Minute, 3) + " min"
-		}
-		window = lo + " to " + hi
-	}
 	rows := [][2]string{
 		{"Test", orNone(t.Name)},
 		{"Pump started", orNone(startText(t))},
-		{"Pumping rate Q", orNone(rate)},
-		{"Static water level (depth below MP)", orNone(shownEntry(t.StaticLevel, d.Length))},
-		{"Pumping well", orNone(wellName(p, t.PumpingWell))},
-		{"Readings taken in", orNone(obs)},
+		{"Pumping rate Q", shownEntry(t.Rate, rateUnit(t, d))},
+		{"Static water level (depth below MP)", shownEntry(t.StaticLevel, d.Length)},
+		{"Pumping well", wellName(p, t.PumpingWell)},
+		{"Readings taken in", wellName(p, t.ObservationWell)},
 		{"Times recorded as", times},
 		{"Model fitted", modelName(f.ModelOrDefault())},
-		{"Fit window", window},
+		{"Fit window", minutesText(f.WindowStart, "first reading") + " to " + minutesText(f.WindowEnd, "last reading")},
 		{"Derivative smoothing L", strconv.FormatFloat(f.SmoothingOrDefault(), 'g', 3, 64) + " log cycles"},
 	}
+	var rs [][]string
 	if lg := t.Logger; lg != nil && lg.Water != nil {
-		rows = append(rows, [2]string{"Pump start on the logger record", lg.Texts.Start}, [2]string{"Pump stop on the logger record", lg.Texts.Stop})
+		rows = append(rows, [2]string{"Pump start and stop on the logger record", orNone(lg.Texts.Start) + " to " + orNone(lg.Texts.Stop)})
+		for _, r := range lg.Rates {
+			rs = append(rs, []string{r.Start, r.Rate + " " + r.Unit})
+		}
 	}
 	sec := reportSection("report-test", "Test and schedule", reportPairs("report-test-table", rows))
-	if lg := t.Logger; lg != nil && len(lg.Rates) > 0 {
-		var rs [][]string
-		for _, r := range lg.Rates {
-			rs = append(rs, []string{orNone(r.Start), orNone(r.Rate), orNone(r.Unit)})
-		}
-		sec.Add(v.TextEl("h3", nil, "Pumping rate schedule"),
-			reportTable("report-rates", []string{"From (min)", "Rate", "Unit"}, rs))
+	if len(rs) > 0 {
+		sec.Add(v.TextEl("h3", nil, "Pumping rate schedule"), reportTable("report-rates", []string{"From (min)", "Rate"}, rs))
 	}
 	return []*v.Node{sec}
 }
 
 func pumpReportData(a *App, rc *ReportContext) [][2]string {
 	req, missing := a.fitRequestLocked(rc.T)
-	rows := [][2]string{{"Usable for the fit", countWord(len(req.Time), "reading")}}
+	span, largest := "", ""
 	if n := len(req.Time); n > 0 {
-		lo, hi, smax := math.Inf(1), math.Inf(-1), math.Inf(-1)
-		for i := range req.Time {
-			lo, hi, smax = math.Min(lo, req.Time[i]), math.Max(hi, req.Time[i]), math.Max(smax, req.Drawdown[i])
+		span = formatSig(req.Time[0]/units.Minute, 3) + " – " + formatSig(req.Time[n-1]/units.Minute, 3) + " min"
+		smax := math.Inf(-1)
+		for _, s := range req.Drawdown {
+			smax = math.Max(smax, s)
 		}
-		rows = append(rows,
-			[2]string{"Time span", formatSig(lo/units.Minute, 3) + " – " + formatSig(hi/units.Minute, 3) + " min"},
-			[2]string{"Largest drawdown", formatSig(rc.D.Length.FromSI(smax), 3) + " " + rc.D.Length.Symbol})
+		largest = formatSig(rc.D.Length.FromSI(smax), 3) + " " + rc.D.Length.Symbol
 	}
-	if len(missing) > 0 {
-		rows = append(rows, [2]string{"Missing for a fit", strings.Join(missing, " ")})
+	return [][2]string{
+		{"Usable for the fit", countWord(len(req.Time), "reading")},
+		{"Time span", span},
+		{"Largest drawdown", largest},
+		{"Missing for a fit", strings.Join(missing, " ")},
 	}
-	return rows
 }
 
 // resultFit is a pumping test's last fit as a row of the fits table.
@@ -163,57 +143,57 @@ func pumpReadingsCSV(a *App, rc *ReportContext) *CSVTable {
 	if out == nil || t.Result == nil || len(out.Residual) != len(req.Time) || out.Result.Inputs != req.Fingerprint() {
 		out = nil
 	}
-	fitted := func(i int) (inWin, fit, res string) {
-		in := (req.From == 0 || req.Time[i] >= req.From) && (req.To == 0 || req.Time[i] <= req.To)
-		inWin = "no"
-		if in {
-			inWin = "yes"
-		}
-		if out != nil {
-			fit, res = csvNum(out.Residual[i]+req.Drawdown[i]), csvNum(out.Residual[i])
-		}
-		return
+	du := depthUnit(t)
+	tb := &CSVTable{Meta: exportMeta(rc, "readings"), Head: []string{"row", "time as typed", "depth as typed (" + du.Symbol + ")",
+		"elapsed time (s)", "depth to water (m)", "drawdown (m)", "in fit window", "fitted drawdown (m)", "residual, fit − observed (m)", "note"}}
+	// Each row of the table is a tape row (its index in the readings
+	// table) or, for the logger record, a reading of the fit; fit[i] is
+	// the reading of the fit that row i is, or −1.
+	n := len(req.Time)
+	var checks []RowCheck
+	fit := make([]int, n)
+	for i := range fit {
+		fit[i] = i
 	}
-	tb := &CSVTable{Meta: exportMeta(rc, "readings")}
-	if t.FitsLogger() {
-		if len(req.Time) == 0 {
-			return nil
+	if !t.FitsLogger() {
+		checks = CheckReadings(t, du)
+		_, _, used := UsableReadings(t, checks)
+		n = len(t.Readings)
+		fit = make([]int, n)
+		for i := range fit {
+			fit[i] = -1
 		}
-		tb.Head = []string{"elapsed time (s)", "drawdown (m)", "in fit window", "fitted drawdown (m)", "residual, fit − observed (m)"}
-		for i := range req.Time {
-			w, f, r := fitted(i)
-			tb.Rows = append(tb.Rows, []string{csvNum(req.Time[i]), csvNum(req.Drawdown[i]), w, f, r})
+		for k, i := range used {
+			fit[i] = k
 		}
-		return tb
 	}
-	if len(t.Readings) == 0 {
+	if n == 0 {
 		return nil
 	}
-	du := depthUnit(t)
-	checks := CheckReadings(t, du)
-	_, _, rows := UsableReadings(t, checks)
-	usable := make(map[int]int, len(rows))
-	for k, i := range rows {
-		usable[i] = k
-	}
-	tb.Head = []string{"row", "time as typed", "depth as typed (" + du.Symbol + ")", "elapsed time (s)", "depth to water (m)",
-		"drawdown (m)", "in fit window", "fitted drawdown (m)", "residual, fit − observed (m)", "note"}
-	for i, r := range t.Readings {
-		c := checks[i]
-		row := []string{strconv.Itoa(i + 1), r.TimeText, r.DepthText, "", "", "", "", "", "", strings.Join(c.Messages, " ")}
-		if r.TimeOK {
-			row[3] = csvNum(r.Elapsed)
+	for i := 0; i < n; i++ {
+		row := make([]string, 10)
+		if checks != nil {
+			r, c := t.Readings[i], checks[i]
+			row[0], row[1], row[2], row[9] = strconv.Itoa(i+1), r.TimeText, r.DepthText, strings.Join(c.Messages, " ")
+			if r.TimeOK {
+				row[3] = csvNum(r.Elapsed)
+			}
+			if r.DepthOK {
+				row[4] = csvNum(r.Depth)
+			}
+			if c.HasDrawdown {
+				row[5] = csvNum(c.Drawdown)
+			}
 		}
-		if r.DepthOK {
-			row[4] = csvNum(r.Depth)
-		}
-		if c.HasDrawdown {
-			row[5] = csvNum(c.Drawdown)
-		}
-		if k, ok := usable[i]; ok {
-			row[6], row[7], row[8] = fitted(k)
-		} else {
-			row[6] = "not usable"
+		row[6] = "not usable"
+		if k := fit[i]; k >= 0 {
+			row[3], row[5], row[6] = csvNum(req.Time[k]), csvNum(req.Drawdown[k]), "no"
+			if (req.From == 0 || req.Time[k] >= req.From) && (req.To == 0 || req.Time[k] <= req.To) {
+				row[6] = "yes"
+			}
+			if out != nil {
+				row[7], row[8] = csvNum(out.Residual[k]+req.Drawdown[k]), csvNum(out.Residual[k])
+			}
 		}
 		tb.Rows = append(tb.Rows, row)
 	}

@@ -472,3 +472,47 @@ func TestReportKindExtension(t *testing.T) {
 		t.Error("a readings export is offered for a kind that has none")
 	}
 }
+
+// TestReportLoggerRecord: a test fitted from a logger record (the
+// invented fixtures of testdata/fielddata) says in its data summary which
+// records, how many readings and which conditioning, and its readings CSV
+// holds the conditioned readings the fit used.
+func TestReportLoggerRecord(t *testing.T) {
+	h := newHarness(t, nil)
+	files := make(chan offered, 4)
+	h.app.mu.Lock()
+	h.app.opt.Download = func(name, mime string, data []byte) { files <- offered{name, mime, data} }
+	h.app.mu.Unlock()
+	loggerTest(h)
+	h.importFixture("logger-file", "pressure-kpa.csv")
+	h.importFixture("baro-file", "baro-mbar.csv")
+	h.input("cond-start", "2024-05-14 08:00")
+	h.input("cond-stop", "2024-05-14 11:00:00")
+	h.input("cond-trend", "true")
+	h.click("tab-fit")
+	h.click("fit")
+	h.click("tab-report")
+	data := h.text("report-data-table")
+	for _, want := range []string{"Fitted fromthe logger record", "“pressure-kpa.csv”: 301 readings, 0 rows skipped",
+		"“baro-mbar.csv”: 65 readings", "barometric record subtracted", "trend before pumping removed", "thinned in log time",
+		"Before pumping 60 readings, pumping 181 readings, recovery 60 readings"} {
+		if !strings.Contains(data, want) {
+			t.Errorf("data summary %q lacks %q", data, want)
+		}
+	}
+	if !strings.Contains(h.text("report-test-table"), "2024-05-14 08:00 to 2024-05-14 11:00:00") {
+		t.Errorf("the pump's start and stop are missing: %q", h.text("report-test-table"))
+	}
+	h.click("export-readings")
+	_, head, rows := readCSV(t, next(t, files).data)
+	req, missing := fitRequest(h.app.Current(), &h.app.Current().Tests[0], nil)
+	if len(missing) > 0 || len(rows) != len(req.Time) || len(req.Time) == 0 {
+		t.Fatalf("%d CSV rows, %d fitted readings (%v)", len(rows), len(req.Time), missing)
+	}
+	for i, row := range rows {
+		if row[3] != csvNum(req.Time[i]) || row[5] != csvNum(req.Drawdown[i]) || row[7] == "" || row[1] != "" {
+			t.Errorf("row %d %q (%q), want t %v s, s %v m", i, row, head, req.Time[i], req.Drawdown[i])
+			break
+		}
+	}
+}
