@@ -57,8 +57,10 @@ func (k BoundaryKind) sign() float64 {
 // well itself, a being its distance from the boundary. With several
 // observation wells at known positions rᵢ follows from the geometry; from
 // one well it is fitted. In a joint fit (FitWells) give each well its
-// own Image: a fitted rᵢ would be one parameter shared by all wells,
-// which holds only for wells equally far from the image well.
+// own Image, or use BoundaryLine, which fits the distance of the
+// boundary and gives each well its own rᵢ from its bearing: a fitted rᵢ
+// of ImageWell would be one parameter shared by all wells, which holds
+// only for wells equally far from the image well.
 //
 // If Image is zero, rᵢ is fitted as the last parameter "ri" (m, positive),
 // after Base's parameters; otherwise rᵢ = Image is given and must exceed
