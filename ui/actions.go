@@ -360,7 +360,9 @@ func (a *App) SetReading(i int, field, text string) {
 	if t == nil {
 		return
 	}
+	t, commit := a.readingsTestLocked(t)
 	if SetReading(t, i, field, text) {
+		commit()
 		a.readingsChangedLocked()
 	}
 }
@@ -375,10 +377,15 @@ func (a *App) PasteReadings(i int, field, text string) bool {
 	a.mu.Lock()
 	defer a.mu.Unlock()
 	t := a.currentTest()
-	if t == nil || i < 0 || i > len(t.Readings) {
+	if t == nil {
+		return false
+	}
+	t, commit := a.readingsTestLocked(t)
+	if i < 0 || i > len(t.Readings) {
 		return false
 	}
 	n, msg := PasteReadings(t, i, field, text)
+	commit()
 	a.notice = msg
 	if n > 0 {
 		a.focus = "r-" + strconv.Itoa(min(i+n, len(t.Readings))) + "-time"

@@ -93,5 +93,9 @@ func DemoProject(ctx context.Context, now time.Time, fit func(context.Context, F
 	r := out.Result
 	r.At = now.UTC()
 	tt.Result = &r
+	storeFit(tt, out.Fit, now.UTC())
+	if err := addLeakyDemo(ctx, p, pw.ID, fit); err != nil {
+		return nil, err
+	}
 	return p, nil
 }

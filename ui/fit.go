@@ -3,7 +3,6 @@ package ui
 import (
 	"context"
 	"errors"
-	"fmt"
 	"hash/fnv"
 	"math"
 	"strconv"
@@ -28,123 +27,144 @@ type FitRequest struct {
 	// CJUMax is the u threshold of the Cooper–Jacob validity (zero means
 	// project.DefaultCJUMax).
 	CJUMax float64
+
+	// Steps is the rate schedule on the readings' clock when the rate
+	// changes or the pump stops; nil for the constant rate Q from time
+	// zero. Stop is when the pump stopped (s), zero if it has not.
+	Steps []models.RateStep
+	Stop  float64
+	// Name, Weight and Angle are the main well's name, its weight in a
+	// joint fit (0 means 1) and its bearing to a boundary (radians).
+	Name          string
+	Weight, Angle float64
+	// More are the other observation wells, fitted jointly with the
+	// main one.
+	More []WellSeries
+	// Boundary is the given distance from the pumping well to a straight
+	// boundary (m); zero fits it.
+	Boundary float64
+	// Jacob applies Jacob's correction to Theis and Cooper–Jacob
+	// (needs Thickness).
+	Jacob bool
+}
+
+// WellSeries is one observation well of a joint fit, in SI units.
+type WellSeries struct {
+	Name             string
+	R, Weight, Angle float64
+	Time, Drawdown   []float64
+}
+
+// wells returns the main well and the others, main first.
+func (r *FitRequest) wells() []WellSeries {
+	return append([]WellSeries{{Name: r.Name, R: r.R, Weight: r.Weight, Angle: r.Angle, Time: r.Time, Drawdown: r.Drawdown}}, r.More...)
+}
+
+// dataPrint fingerprints the readings and constants of the test, not
+// the model or its settings.
+func (r *FitRequest) dataPrint() string {
+	h := fnv.New64a()
+	w := func(v float64) { h.Write(strconv.AppendFloat(nil, v, 'g', -1, 64)); h.Write([]byte{';'}) }
+	for _, v := range []float64{r.Q, r.Thickness, r.Stop, r.From, r.To} {
+		w(v)
+	}
+	for _, s := range r.Steps {
+		w(s.Start)
+		w(s.Rate)
+	}
+	for _, ws := range r.wells() {
+		h.Write([]byte(ws.Name + ";"))
+		for _, v := range []float64{ws.R, ws.Weight, ws.Angle} {
+			w(v)
+		}
+		for i := range ws.Time {
+			w(ws.Time[i])
+			w(ws.Drawdown[i])
+		}
+	}
+	return strconv.FormatUint(h.Sum64(), 16)
 }
 
 // Fingerprint identifies the inputs of the request, so that a stored
 // result can be told to belong to the readings on screen.
 func (r FitRequest) Fingerprint() string {
 	h := fnv.New64a()
-	w := func(v float64) { h.Write([]byte(strconv.FormatFloat(v, 'g', -1, 64) + ";")) }
-	h.Write([]byte(string(r.Model) + ";"))
-	for _, v := range []float64{r.Q, r.R, r.From, r.To, r.Thickness, r.CJUMax} {
-		w(v)
-	}
-	for i := range r.Time {
-		w(r.Time[i])
-		w(r.Drawdown[i])
+	h.Write([]byte(string(r.Model) + ";" + r.dataPrint() + ";" + strconv.FormatBool(r.Jacob) + ";"))
+	for _, v := range []float64{r.CJUMax, r.Boundary} {
+		h.Write(strconv.AppendFloat(nil, v, 'g', -1, 64))
 	}
 	return strconv.FormatUint(h.Sum64(), 16)
 }
 
-// FitOutcome is a fit of a test: the result kept in the project and what
-// the plots need.
+// WellOutcome is the part of a fit that belongs to one observation well.
+type WellOutcome struct {
+	Name string
+	R    float64
+	// Used and Residual are as in FitOutcome, for this well's readings;
+	// RMSE is over its used readings (m).
+	Used     []bool
+	Residual []float64
+	RMSE     float64
+	N        int
+}
+
+// FitOutcome is a fit of a test: the results kept in the project and
+// what the plots need.
 type FitOutcome struct {
+	// Result is the fit in the form of the results list (T, S, K …);
+	// Fit is the same fit as a row of the comparison table.
 	Result project.FitResult
-	// Used marks the readings of the request that were fitted (inside
+	Fit    project.ModelFit
+	// Used marks the readings of the main well that were fitted (inside
 	// the window); Residual is model − observed at every reading (NaN
 	// where the model cannot be evaluated).
 	Used     []bool
 	Residual []float64
-	fitted   *models.Result
+	// Wells are every well's part, main first.
+	Wells []WellOutcome
+	// curve gives well k's fitted curve and 95 % band at times t (s).
+	curve func(k int, t []float64) (c, lo, hi []float64)
 }
 
 // Band returns the fitted curve at times t (s) and its 95 % band.
 func (o *FitOutcome) Band(t []float64) (curve, lower, upper []float64) {
-	return o.fitted.Band(t)
+	return o.curve(0, t)
+}
+
+// WellBand is Band for well k (0 is the main well).
+func (o *FitOutcome) WellBand(k int, t []float64) (curve, lower, upper []float64) {
+	return o.curve(k, t)
 }
 
 // Eval returns the fitted curve at times t (s).
 func (o *FitOutcome) Eval(t []float64) []float64 {
-	y := make([]float64, len(t))
-	o.fitted.Model.Eval(y, t, o.fitted.Params)
-	return y
+	c, _, _ := o.curve(0, t)
+	return c
 }
 
-// FitTest fits the request's model to its readings with models.Fit and
+// FitTest fits the request's model to its readings — one well with
+// models.Fit, several jointly with models.FitWells, over the rate
+// schedule by superposition when the rate changes or the pump stops — and
 // derives K = T/b when b is known and the earliest time from which the
 // Cooper–Jacob line is valid.
 func FitTest(ctx context.Context, req FitRequest) (*FitOutcome, error) {
 	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
-	umax := req.CJUMax
-	if umax <= 0 {
-		umax = project.DefaultCJUMax
+	if req.Model == "" {
+		req.Model = project.Theis
 	}
-	var m models.Model
-	switch req.Model {
-	case project.CooperJacob:
-		m = models.CooperJacob{Q: req.Q, R: req.R, UMax: umax}
-	case project.Theis, "":
-		m = models.Theis{Q: req.Q, R: req.R}
-	default:
-		return nil, fmt.Errorf("unknown model %q", req.Model)
+	pm := pumpModelOf(req.Model)
+	if pm == nil {
+		return nil, errors.New("unknown model “" + string(req.Model) + "”")
 	}
-	res, err := models.Fit(m, models.Data{Time: req.Time, Value: req.Drawdown},
-		&models.FitSettings{From: req.From, To: req.To})
-	if res == nil || res.Fit == nil || len(res.Params) != 2 {
-		if err == nil {
-			err = errors.New("the fit gave no result")
-		}
-		return nil, err
+	if req.CJUMax <= 0 {
+		req.CJUMax = project.DefaultCJUMax
 	}
-	out := &FitOutcome{fitted: res}
-	r := &out.Result
-	r.Model = req.Model
-	if r.Model == "" {
-		r.Model = project.Theis
+	if pm.build == nil {
+		return fitRecoveryLine(&req)
 	}
-	est := func(name string) project.Estimate {
-		e, _ := res.Estimate(name)
-		return project.Estimate{Value: e.Value, Lower: e.Lower, Upper: e.Upper}
-	}
-	r.T, r.S = est("T"), est("S")
-	if req.Thickness > 0 {
-		b := req.Thickness
-		r.K = project.Estimate{Value: r.T.Value / b, Lower: r.T.Lower / b, Upper: r.T.Upper / b}
-		r.HasK = true
-	}
-	r.RMSE = res.Fit.RMSE
-	r.Iterations = res.Fit.Iterations
-	r.Status = res.Fit.Status.String()
-	r.N = len(res.Used)
-	T, S := r.T.Value, r.S.Value
-	r.EarliestValid = req.R * req.R * S / (4 * T * umax)
-	r.Warnings = append(r.Warnings, res.Caveats...)
-	if err != nil {
-		r.Warnings = append(r.Warnings, "The fit stopped early: "+err.Error())
-	}
-	if req.Model == project.CooperJacob && req.From > 0 && req.From < r.EarliestValid {
-		// models' caveat already says which points are early; add the
-		// plain advice once.
-		r.Warnings = append(r.Warnings, fmt.Sprintf("Start the window at %s min or later for the straight line to hold (u < %g).",
-			formatSig(r.EarliestValid/60, 3), umax))
-	}
-	r.Warnings = dedupe(r.Warnings)
-	r.Inputs = req.Fingerprint()
-	out.Used = make([]bool, len(req.Time))
-	for _, i := range res.Used {
-		out.Used[i] = true
-	}
-	out.Residual = make([]float64, len(req.Time))
-	m.Eval(out.Residual, req.Time, res.Params)
-	for i := range out.Residual {
-		out.Residual[i] -= req.Drawdown[i]
-		if math.IsInf(out.Residual[i], 0) {
-			out.Residual[i] = math.NaN()
-		}
-	}
-	return out, nil
+	return fitPump(&req, pm)
 }
 
 func dedupe(ss []string) []string {
@@ -158,4 +178,13 @@ func dedupe(ss []string) []string {
 		}
 	}
 	return out
+}
+
+// finite returns v, or 0 for NaN and infinities (which the project file
+// cannot hold).
+func finite(v float64) float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return 0
+	}
+	return v
 }

@@ -22,6 +22,11 @@ type fitState struct {
 	dragging  bool
 	dragStart float64
 	dragEnd   float64
+	// series is the well whose readings table is shown: 0 the test's
+	// own, k the k-th other well of Test.Pump.
+	series int
+	// all is set while every model is being fitted in turn.
+	all bool
 }
 
 // currentTest returns the selected test of the open project, or nil.
@@ -98,6 +103,7 @@ func fitRequest(p *project.Project, t *project.Test, cond conditioner) (FitReque
 		req.Thickness = b
 	}
 	req.CJUMax = t.Fit.CJUMaxOrDefault()
+	missing = append(missing, pumpRequest(p, t, &req, w)...)
 	return req, missing
 }
 
@@ -138,13 +144,44 @@ func (a *App) runFitLocked() {
 	if len(missing) > 0 {
 		a.fit.msg = strings.Join(missing, " ")
 		a.fit.out = nil
+		a.fit.all = false
 		return
+	}
+	// The other models, when all are fitted in turn: those whose inputs
+	// are complete; the chosen one last, so its fit stays on screen.
+	var others []FitRequest
+	var skipped []string
+	if a.fit.all {
+		a.fit.all = false
+		saved := t.Fit.Model
+		for _, pm := range pumpModels {
+			if pm.id == req.Model {
+				continue
+			}
+			t.Fit.Model = pm.id
+			r, miss := a.fitRequestLocked(t)
+			if len(miss) > 0 {
+				skipped = append(skipped, pm.short+" ("+miss[0]+")")
+				continue
+			}
+			others = append(others, r)
+		}
+		t.Fit.Model = saved
 	}
 	a.fit.msg = ""
 	a.fit.running = true
 	pid, tid := a.cur.ID, t.ID
 	fitFn := a.opt.Fit
 	a.goBusy("fit", "Fitting…", func(ctx context.Context) {
+		var fits []project.ModelFit
+		var failed []string
+		for _, r := range others {
+			if o, err := fitFn(ctx, r); err == nil {
+				fits = append(fits, o.Fit)
+			} else {
+				failed = append(failed, modelName(r.Model)+": "+err.Error())
+			}
+		}
 		out, err := fitFn(ctx, req)
 		a.mu.Lock()
 		defer a.mu.Unlock()
@@ -153,17 +190,28 @@ func (a *App) runFitLocked() {
 		if a.cur == nil || a.cur.ID != pid || cur == nil || cur.ID != tid {
 			return
 		}
+		now := a.opt.Now().UTC()
+		for _, f := range fits {
+			storeFit(cur, f, now)
+		}
+		if len(fits) > 0 {
+			a.changedLocked()
+		}
 		if err != nil {
 			a.fit.msg = "The fit failed: " + err.Error()
 			a.fit.out = nil
 		} else {
-			out.Result.At = a.opt.Now().UTC()
+			out.Result.At = now
 			a.fit.out = out
-			if cur.Result == nil || cur.Result.Inputs != out.Result.Inputs {
+			if cur.Result == nil || cur.Result.Inputs != out.Result.Inputs || storeFit(cur, out.Fit, now) {
 				r := out.Result
 				cur.Result = &r
+				storeFit(cur, out.Fit, now)
 				a.changedLocked()
 			}
+		}
+		if len(skipped)+len(failed) > 0 {
+			a.notice = "Not fitted: " + strings.Join(append(skipped, failed...), "; ")
 		}
 		if a.fit.again {
 			a.fit.again = false
@@ -207,7 +255,7 @@ func (a *App) restorePlotLocked() {
 // SetModel chooses the model of the selected test.
 func (a *App) SetModel(m project.Model) {
 	a.editTest(func(t *project.Test) {
-		if m == project.Theis || m == project.CooperJacob {
+		if pumpModelOf(m) != nil {
 			t.Fit.Model = m
 		}
 	}, true)

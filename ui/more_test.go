@@ -118,10 +118,11 @@ func TestTests(t *testing.T) {
 	h := newHarness(t, nil)
 	h.click("demo-project")
 	h.click("tab-test")
+	n := len(h.app.Current().Tests)
 	h.click("add-test")
 	p := h.app.Current()
-	if len(p.Tests) != 2 || p.Tests[1].ObservationWell == "" || p.Tests[1].PumpingWell == "" {
-		t.Fatalf("new test %+v", p.Tests[1])
+	if len(p.Tests) != n+1 || p.Tests[n].ObservationWell == "" || p.Tests[n].PumpingWell == "" {
+		t.Fatalf("new test %+v", p.Tests[n])
 	}
 	h.input("test-select", "0")
 	if got := h.byID("test-name").Attrs["value"]; got != p.Tests[0].Name {

@@ -397,7 +397,7 @@ func (a *App) renderTest() *v.Node {
 		selectField("test-depth-unit", "Depths typed in", depthUnit(t).Symbol, []option{
 			{"m", "metres (m)"}, {"ft", "feet (ft)"}, {"cm", "centimetres (cm)"},
 		}, "", func(s string) { a.SetTestField("depth-unit", s) })))
-	return div.Add(card)
+	return div.Add(card, a.renderSchedule(t, d))
 }
 
 func timeMode(t *project.Test) project.TimeMode {
@@ -433,11 +433,13 @@ func (a *App) testSelector() *v.Node {
 
 func (a *App) renderReadings() *v.Node {
 	p := a.cur
-	t := a.currentTest()
+	t0 := a.currentTest()
 	d := DisplayFor(p.Units)
-	du := depthUnit(t)
+	du := depthUnit(t0)
+	t, commit := a.readingsTestLocked(t0)
 	checks := CheckReadings(t, du)
-	div := v.El("div", nil, a.testSelector())
+	commit()
+	div := v.El("div", nil, a.testSelector(), a.seriesSelector(t0, d))
 	static, hasStatic := t.StaticLevel.Value()
 	info := "Static level not entered yet (Test tab): drawdown appears once it is."
 	if hasStatic {
@@ -535,9 +537,8 @@ func (a *App) renderFit() *v.Node {
 	div := v.El("div", nil, a.testSelector())
 	ctl := v.El("div", v.A("class", "ff-card ff-fitctl"))
 	ctl.Add(sourceSelect(a, t))
-	ctl.Add(selectField("fit-model", "Model", string(t.Fit.ModelOrDefault()), []option{
-		{string(project.Theis), "Theis (1935)"}, {string(project.CooperJacob), "Cooper–Jacob (1946) straight line"},
-	}, "", func(s string) { a.SetModel(project.Model(s)) }))
+	ctl.Add(selectField("fit-model", "Model", string(t.Fit.ModelOrDefault()), modelOptions(),
+		"", func(s string) { a.SetModel(project.Model(s)) }), a.pumpControls(t, d))
 	ctl.Add(v.El("div", v.A("class", "ff-grid"),
 		textField{id: "window-start", label: "Fit window from", unit: "min", numeric: true, value: t.Fit.WindowStartText,
 			placeholder: "first reading", onInput: func(s string) { a.SetWindowText("start", s) }}.node(),
@@ -558,12 +559,14 @@ func (a *App) renderFit() *v.Node {
 	auto.Handle("change", func(e *v.Event) { a.SetAutoFit(e.Checked) })
 	ctl.Add(v.El("div", v.A("class", "ff-row"),
 		button("fit", "Fit", "ff-btn ff-primary ff-big", a.RunFit),
+		button("fit-all", "Fit every model", "ff-btn", a.FitAll),
 		button("window-clear", "Use all readings", "ff-btn", a.ClearWindow),
 		v.El("label", v.A("class", "ff-checklabel", "for", "auto-fit"), auto, v.T(" Refit as readings change"))))
 	div.Add(ctl)
 	status := a.fitStatus(t)
 	div.Add(v.TextEl("p", v.A("id", "fit-status", "class", "ff-status", "role", "status", "aria-live", "polite"), status))
 	div.Add(a.renderResults(p, t, d))
+	div.Add(a.renderPumpPanels(t, d)...)
 	div.Add(a.renderPlots(p, t, d))
 	return div
 }
@@ -585,13 +588,6 @@ func (a *App) fitStatus(t *project.Test) string {
 		return "Updating the fit…"
 	}
 	return fmt.Sprintf("Fitted %s at %s: %s.", modelName(t.Result.Model), t.Result.At.Local().Format("15:04:05"), t.Result.Status)
-}
-
-func modelName(m project.Model) string {
-	if m == project.CooperJacob {
-		return "Cooper–Jacob"
-	}
-	return "Theis"
 }
 
 func (a *App) renderResults(p *project.Project, t *project.Test, d Display) *v.Node {
@@ -619,8 +615,11 @@ func (a *App) renderResults(p *project.Project, t *project.Test, d Display) *v.N
 		}
 		val, s := est(r.T, d.Transmissivity)
 		item("result-T", "Transmissivity T", val, s)
-		val, s = est(r.S, mustUnit("1"))
-		item("result-S", "Storativity S (–)", val, s)
+		if f := currentFit(t); f == nil || hasParam(f, "S") {
+			val, s = est(r.S, mustUnit("1"))
+			item("result-S", "Storativity S (–)", val, s)
+		}
+		extraResults(t, d, item)
 		if r.HasK {
 			val, s = est(r.K, d.Conductivity)
 			item("result-K", "Hydraulic conductivity K = T/b", val, s)

@@ -3,6 +3,7 @@ package project
 import (
 	"encoding/hex"
 	"math/rand/v2"
+	"slices"
 	"time"
 )
 
@@ -167,6 +168,9 @@ type Test struct {
 	// Stamp is the test's revision record: every field of the test,
 	// also those added later, counts as a change of the test.
 	Stamp Stamp `json:"stamp"`
+	// Pump holds the stop, rate steps and more observation wells of a
+	// pumping test; nil for one constant rate read in one well.
+	Pump *PumpData `json:"pump,omitempty"`
 }
 
 // FitsLogger reports whether the fit uses the logger record.
@@ -340,6 +344,9 @@ func (p *Project) RemoveWell(id string) bool {
 				if t.ObservationWell == id {
 					t.ObservationWell = ""
 				}
+				if t.Pump != nil {
+					t.Pump.Wells = slices.DeleteFunc(t.Pump.Wells, func(w WellReadings) bool { return w.WellID == id })
+				}
 			}
 			return true
 		}
@@ -360,6 +367,8 @@ func (p *Project) Clone() *Project {
 			t.Result = &r
 		}
 		t.Logger = t.Logger.clone()
+		t.Pump = t.Pump.clone()
+		t.Fits = append([]ModelFit(nil), t.Fits...)
 		q.Tests[i] = t
 	}
 	return &q
@@ -386,6 +395,11 @@ func (p *Project) Duplicate(name string, now time.Time) *Project {
 		t.ID = NewID()
 		t.PumpingWell = ids[t.PumpingWell]
 		t.ObservationWell = ids[t.ObservationWell]
+		if t.Pump != nil {
+			for k := range t.Pump.Wells {
+				t.Pump.Wells[k].WellID = ids[t.Pump.Wells[k].WellID]
+			}
+		}
 	}
 	return q
 }

@@ -1,0 +1,212 @@
+package ui
+
+import (
+	"strconv"
+
+	"fieldfit/models"
+	"fieldfit/models/diagnostic"
+	"fieldfit/models/regime"
+	"fieldfit/models/steptest"
+	"fieldfit/models/units"
+	"fieldfit/ui/project"
+	v "fieldfit/ui/view"
+)
+
+// renderPumpPanels are the fit step's panels of a pumping test beyond
+// the results: the comparison table, the flow-regime hints and the stop
+// indicator, the step-drawdown analysis and the distance–drawdown line.
+func (a *App) renderPumpPanels(t *project.Test, d Display) []*v.Node {
+	req, _ := a.fitRequestLocked(t)
+	out := []*v.Node{a.renderCompare(t, d), renderHints(t, &req, d)}
+	if n := a.stepPanel(t, &req, d); n != nil {
+		out = append(out, n)
+	}
+	if n := a.distancePanel(t, &req, d); n != nil {
+		out = append(out, n)
+	}
+	return out
+}
+
+// pumpingPart returns the readings taken while the pump ran.
+func pumpingPart(req *FitRequest) (ts, ss []float64) {
+	for i, tm := range req.Time {
+		if req.Stop == 0 || tm <= req.Stop {
+			ts, ss = append(ts, tm), append(ss, req.Drawdown[i])
+		}
+	}
+	return ts, ss
+}
+
+// renderHints shows the flow-regime hints of the main well's drawdown
+// while pumping, and whether pumping can stop.
+func renderHints(t *project.Test, req *FitRequest, d Display) *v.Node {
+	box := v.El("div", v.A("id", "hints", "class", "ff-card"), v.TextEl("h3", nil, "What the derivative suggests"))
+	ts, ss := pumpingPart(req)
+	if len(ts) < 5 {
+		return box.Add(v.TextEl("p", v.A("class", "ff-hint"), "Hints appear from 5 readings taken while pumping."))
+	}
+	win := diagnostic.WindowFromCycles(t.Fit.SmoothingOrDefault())
+	q := req.Q
+	if len(req.Steps) > 2 || len(req.Steps) == 2 && req.Steps[1].Rate != 0 {
+		q = 0 // the rate changes: no T from a flat stretch
+	}
+	dg, err := regime.Diagnose(ts, ss, &regime.Settings{Rate: q, Window: win})
+	ul := v.El("ul", v.A("id", "hint-list", "class", "ff-hints"))
+	switch {
+	case err != nil:
+		ul.Add(v.TextEl("li", nil, "No hints: "+err.Error()))
+	case len(dg.Hints) == 0:
+		ul.Add(v.TextEl("li", nil, "No clear pattern in the derivative yet (no stretch of half a log cycle that is flat, rising, falling or of unit slope)."))
+	default:
+		for _, h := range dg.Hints {
+			s := "Suggestion: " + h.Text
+			if h.Kind == regime.Flat && h.T > 0 {
+				s += " This level implies T ≈ " + formatSig(d.Transmissivity.FromSI(h.T), 3) + " " + d.Transmissivity.Symbol + "."
+			}
+			ul.Add(v.TextEl("li", v.A("data-kind", h.Kind.String()), s))
+		}
+	}
+	box.Add(ul)
+	if req.Stop == 0 {
+		st, err := regime.CanStop(ts, ss, &regime.StopSettings{Window: win})
+		text, class := "", "ff-stop"
+		if err != nil {
+			text = "Cannot tell: " + err.Error()
+		} else {
+			text = st.Text
+			if st.Flat {
+				class += " ff-stop-yes"
+			}
+			if st.Remaining > 0 {
+				text += " One more log cycle of flat derivative at " + formatSig(st.OneCycleAt/units.Minute, 3) + " min, " +
+					formatSig(st.Remaining/units.Minute, 3) + " min from the last reading."
+			}
+		}
+		box.Add(v.El("div", v.A("id", "can-stop", "class", class, "role", "status"),
+			v.TextEl("strong", nil, "Can pumping stop? "), v.T(text)))
+	}
+	return box.Add(v.TextEl("p", v.A("class", "ff-hint"), "Hints and the stop indicator are suggestions from the shape of the derivative (tolerances of common practice); judge them with the plots."))
+}
+
+// stepPanel is the step-drawdown analysis, shown when the schedule has
+// two or more pumping rates.
+func (a *App) stepPanel(t *project.Test, req *FitRequest, d Display) *v.Node {
+	var steps []steptest.Step
+	for _, s := range req.Steps {
+		if s.Rate > 0 {
+			steps = append(steps, steptest.Step{Start: s.Start, Rate: s.Rate})
+		}
+	}
+	if len(steps) < 2 {
+		return nil
+	}
+	pd := t.Pump
+	box := v.El("div", v.A("id", "steptest", "class", "ff-card"), v.TextEl("h3", nil, "Step-drawdown test"))
+	box.Add(textField{id: "step-duration", label: "Drawdown of each step taken at", unit: "min after its start", numeric: true,
+		value: pd.StepDurationText, placeholder: "shortest step", onInput: func(s string) { a.SetPumpField("step-duration", s) }}.node())
+	ts, ss := pumpingPart(req)
+	an, err := steptest.Analyse(steps, models.Data{Time: ts, Value: ss}, &steptest.Settings{Duration: pd.StepDuration})
+	if err != nil {
+		return box.Add(v.TextEl("p", v.A("id", "step-msg", "class", "ff-msg"), err.Error()))
+	}
+	ru := rateUnit(t, d)
+	tb := v.El("table", v.A("id", "step-table", "class", "ff-compare"), v.El("thead", nil, v.El("tr", nil,
+		v.TextEl("th", nil, "Step"), v.TextEl("th", nil, "Rate ("+ru.Symbol+")"),
+		v.TextEl("th", nil, "Drawdown at Δt ("+d.Length.Symbol+")"), v.TextEl("th", nil, "Specific drawdown s/Q"))))
+	body := v.El("tbody", nil)
+	for _, s := range an.Steps {
+		body.Add(v.El("tr", nil, v.TextEl("td", nil, strconv.Itoa(s.Index+1)), v.TextEl("td", nil, formatSig(ru.FromSI(s.Rate), 3)),
+			v.TextEl("td", nil, formatSig(d.Length.FromSI(s.Drawdown), 3)), v.TextEl("td", nil, formatSig(s.Specific, 3)+" s/m²")))
+	}
+	box.Add(v.TextEl("p", nil, "Each step's drawdown at Δt = "+formatSig(an.Duration/units.Minute, 3)+" min by superposition (Hantush–Bierschenk)."), tb.Add(body))
+	pts := an.Points()
+	law, err := steptest.Jacob(pts, nil)
+	if err != nil {
+		return box.Add(v.TextEl("p", v.A("id", "step-msg", "class", "ff-msg"), err.Error()))
+	}
+	dl := v.El("dl", v.A("class", "ff-dl"))
+	item := func(id, label, text string) { dl.Add(v.TextEl("dt", nil, label), v.TextEl("dd", v.A("id", id), text)) }
+	for _, c := range law.Coefficients {
+		item("step-"+c.Name, c.Long+" "+c.Name, formatSig(c.Value, 3)+" "+c.Unit+" (95 % CI "+formatSig(c.Lower, 3)+" – "+formatSig(c.Upper, 3)+")")
+	}
+	effAt := func(q float64) string {
+		e, lo, hi := law.Efficiency(q)
+		return formatSig(100*e, 3) + " % (95 % CI " + formatSig(100*lo, 3) + " – " + formatSig(100*hi, 3) + " %)"
+	}
+	for _, s := range an.Steps {
+		item("step-eff-"+strconv.Itoa(s.Index), "Efficiency BQ/s_w at step "+strconv.Itoa(s.Index+1), effAt(s.Rate))
+	}
+	box.Add(textField{id: "eff-rate", label: "Efficiency at the rate", unit: ru.Symbol, numeric: true, value: pd.EfficiencyRateText,
+		onInput: func(s string) { a.SetPumpField("efficiency-rate", s) }}.node())
+	if pd.EfficiencyRate > 0 {
+		item("step-eff-at", "Efficiency at "+formatSig(ru.FromSI(pd.EfficiencyRate), 3)+" "+ru.Symbol, effAt(pd.EfficiencyRate))
+	}
+	if cond, err := law.Condition(); err == nil {
+		item("step-condition", "Well condition (guidance)", cond.String())
+	}
+	box.Add(checkField("rorabaugh", " Also fit Rorabaugh's exponent n (s_w = BQ + CQⁿ)", pd.Rorabaugh,
+		func(on bool) { a.SetPumpField("rorabaugh", strconv.FormatBool(on)) }))
+	if pd.Rorabaugh {
+		if rb, err := steptest.Rorabaugh(pts, nil); err != nil {
+			item("step-n", "Rorabaugh n", err.Error())
+		} else if c, ok := rb.Coefficient("n"); ok {
+			item("step-n", "Rorabaugh n", formatSig(c.Value, 3)+" (95 % CI "+formatSig(c.Lower, 3)+" – "+formatSig(c.Upper, 3)+")")
+		}
+	}
+	box.Add(dl)
+	for _, c := range append(an.Caveats, law.Caveats...) {
+		box.Add(v.TextEl("p", v.A("class", "ff-hint"), c))
+	}
+	return box
+}
+
+// distancePanel is the distance–drawdown line at a chosen time, shown
+// with two or more observation wells.
+func (a *App) distancePanel(t *project.Test, req *FitRequest, d Display) *v.Node {
+	wells := req.wells()
+	if len(wells) < 2 {
+		return nil
+	}
+	pd := t.Pump
+	box := v.El("div", v.A("id", "distance", "class", "ff-card"), v.TextEl("h3", nil, "Distance–drawdown (Cooper–Jacob in r)"))
+	box.Add(textField{id: "distance-at", label: "At the time", unit: "min since the start", numeric: true, value: pd.DistanceAtText,
+		placeholder: "latest read at every well", onInput: func(s string) { a.SetPumpField("distance-at", s) }}.node())
+	at := pd.DistanceAt
+	if at == 0 {
+		for k, w := range wells {
+			last := 0.0
+			for _, tm := range w.Time {
+				if req.Stop == 0 || tm <= req.Stop {
+					last = tm
+				}
+			}
+			if k == 0 || last < at {
+				at = last
+			}
+		}
+	}
+	var r, s []float64
+	for _, w := range wells {
+		dd, err := models.DrawdownAt(models.Data{Time: w.Time, Value: w.Drawdown}, at)
+		if err != nil {
+			return box.Add(v.TextEl("p", v.A("id", "distance-msg", "class", "ff-msg"), quoteName(w.Name)+": "+err.Error()))
+		}
+		r, s = append(r, w.R), append(s, dd)
+	}
+	res, err := models.DistanceDrawdownLine(req.Q, at, r, s, &models.LineSettings{UMax: req.CJUMax})
+	if err != nil {
+		return box.Add(v.TextEl("p", v.A("id", "distance-msg", "class", "ff-msg"), err.Error()))
+	}
+	dl := v.El("dl", v.A("class", "ff-dl"))
+	_, ts := estimateText(namedEstimate("T", "m²/s", res.T, res.TLower, res.TUpper), d)
+	_, sss := estimateText(namedEstimate("S", "", res.S, res.SLower, res.SUpper), d)
+	dl.Add(v.TextEl("dt", nil, "Time"), v.TextEl("dd", nil, formatSig(at/units.Minute, 4)+" min"),
+		v.TextEl("dt", nil, "Transmissivity T"), v.TextEl("dd", v.A("id", "distance-T"), ts),
+		v.TextEl("dt", nil, "Storativity S"), v.TextEl("dd", v.A("id", "distance-S"), sss),
+		v.TextEl("dt", nil, "Zero drawdown at r₀"), v.TextEl("dd", nil, formatSig(d.Length.FromSI(res.R0), 3)+" "+d.Length.Symbol))
+	box.Add(dl)
+	for _, c := range res.Caveats {
+		box.Add(v.TextEl("p", v.A("class", "ff-hint"), c))
+	}
+	return box
+}
