@@ -150,28 +150,8 @@ func fitPump(req *FitRequest, pm *pumpModel) (*FitOutcome, error) {
 		return c, lo, hi
 	}}
 	for k, w := range series {
-		wo := WellOutcome{Name: w.Name, R: w.R, Used: make([]bool, len(w.Time)), N: len(res[k].Used)}
-		for _, i := range res[k].Used {
-			wo.Used[i] = true
-		}
-		c, _, _ := out.curve(k, w.Time)
-		ss := 0.0
-		for i := range c {
-			c[i] -= w.Drawdown[i]
-			if math.IsInf(c[i], 0) {
-				c[i] = math.NaN()
-			}
-			if wo.Used[i] {
-				ss += c[i] * c[i]
-			}
-		}
-		wo.Residual = c
-		if wo.N > 0 {
-			wo.RMSE = math.Sqrt(ss / float64(wo.N))
-		}
-		out.Wells = append(out.Wells, wo)
+		out.addWell(k, w.Name, w.R, w.Time, w.Drawdown, res[k].Used)
 	}
-	out.Used, out.Residual = out.Wells[0].Used, out.Wells[0].Residual
 
 	f := &out.Fit
 	for _, e := range main.Estimates {
@@ -335,22 +315,13 @@ func fitRecoveryLine(req *FitRequest) (*FitOutcome, error) {
 		}
 		return c, lo, hi
 	}}
-	wo := WellOutcome{Name: req.Name, R: req.R, Used: make([]bool, len(req.Time)), N: len(rl.Used)}
-	for _, j := range rl.Used {
-		wo.Used[idx[j]] = true
+	used := make([]int, len(rl.Used))
+	for k, j := range rl.Used {
+		used[k] = idx[j]
 	}
-	c, _, _ := out.curve(0, req.Time)
-	ss := 0.0
-	for i := range c {
-		c[i] -= req.Drawdown[i]
-		if wo.Used[i] {
-			ss += c[i] * c[i]
-		}
-	}
-	wo.Residual = c
-	wo.RMSE = math.Sqrt(ss / float64(max(wo.N, 1)))
-	out.Wells = []WellOutcome{wo}
-	out.Used, out.Residual = wo.Used, wo.Residual
+	out.addWell(0, req.Name, req.R, req.Time, req.Drawdown, used)
+	wo := out.Wells[0]
+	ss := wo.RMSE * wo.RMSE * float64(wo.N)
 	f := &out.Fit
 	f.Params = []project.NamedEstimate{
 		namedEstimate("T", "m²/s", rl.T, rl.TLower, rl.TUpper),
@@ -368,4 +339,32 @@ func fitRecoveryLine(req *FitRequest) (*FitOutcome, error) {
 	finishFit(req, out, usedKey(out))
 	out.Result.Warnings = f.Warnings
 	return out, nil
+}
+
+// addWell adds well k's part to o: which of its readings t, s were
+// fitted (used, indices) and the residuals of the fitted curve.
+func (o *FitOutcome) addWell(k int, name string, r float64, t, s []float64, used []int) {
+	wo := WellOutcome{Name: name, R: r, Used: make([]bool, len(t)), N: len(used)}
+	for _, i := range used {
+		wo.Used[i] = true
+	}
+	c, _, _ := o.curve(k, t)
+	ss := 0.0
+	for i := range c {
+		c[i] -= s[i]
+		if math.IsInf(c[i], 0) {
+			c[i] = math.NaN()
+		}
+		if wo.Used[i] {
+			ss += c[i] * c[i]
+		}
+	}
+	wo.Residual = c
+	if wo.N > 0 {
+		wo.RMSE = math.Sqrt(ss / float64(wo.N))
+	}
+	o.Wells = append(o.Wells, wo)
+	if k == 0 {
+		o.Used, o.Residual = wo.Used, wo.Residual
+	}
 }

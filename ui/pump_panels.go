@@ -110,15 +110,12 @@ func (a *App) stepPanel(t *project.Test, req *FitRequest, d Display) *v.Node {
 		return box.Add(v.TextEl("p", v.A("id", "step-msg", "class", "ff-msg"), err.Error()))
 	}
 	ru := rateUnit(t, d)
-	tb := v.El("table", v.A("id", "step-table", "class", "ff-compare"), v.El("thead", nil, v.El("tr", nil,
-		v.TextEl("th", nil, "Step"), v.TextEl("th", nil, "Rate ("+ru.Symbol+")"),
-		v.TextEl("th", nil, "Drawdown at Δt ("+d.Length.Symbol+")"), v.TextEl("th", nil, "Specific drawdown s/Q"))))
-	body := v.El("tbody", nil)
+	var rows [][]string
 	for _, s := range an.Steps {
-		body.Add(v.El("tr", nil, v.TextEl("td", nil, strconv.Itoa(s.Index+1)), v.TextEl("td", nil, formatSig(ru.FromSI(s.Rate), 3)),
-			v.TextEl("td", nil, formatSig(d.Length.FromSI(s.Drawdown), 3)), v.TextEl("td", nil, formatSig(s.Specific, 3)+" s/m²")))
+		rows = append(rows, []string{strconv.Itoa(s.Index + 1), formatSig(ru.FromSI(s.Rate), 3), formatSig(d.Length.FromSI(s.Drawdown), 3), formatSig(s.Specific, 3) + " s/m²"})
 	}
-	box.Add(v.TextEl("p", nil, "Each step's drawdown at Δt = "+formatSig(an.Duration/units.Minute, 3)+" min by superposition (Hantush–Bierschenk)."), tb.Add(body))
+	box.Add(v.TextEl("p", nil, "Each step's drawdown at Δt = "+formatSig(an.Duration/units.Minute, 3)+" min by superposition (Hantush–Bierschenk)."),
+		dataTable("step-table", []string{"Step", "Rate (" + ru.Symbol + ")", "Drawdown at Δt (" + d.Length.Symbol + ")", "Specific drawdown s/Q"}, rows, nil))
 	pts := an.Points()
 	law, err := steptest.Jacob(pts, nil)
 	if err != nil {

@@ -250,45 +250,41 @@ func (a *App) renderCompare(t *project.Test, d Display) *v.Node {
 		}
 		return rows[i].AICc < rows[j].AICc
 	})
-	table := v.El("table", v.A("id", "compare-table", "class", "ff-compare"))
-	table.Add(v.El("thead", nil, v.El("tr", nil,
-		v.TextEl("th", v.A("scope", "col"), "Model"), v.TextEl("th", v.A("scope", "col"), "N"),
-		v.TextEl("th", v.A("scope", "col"), "RMSE ("+d.Length.Symbol+")"), v.TextEl("th", v.A("scope", "col"), "AICc"),
-		v.TextEl("th", v.A("scope", "col"), "ΔAICc"), v.TextEl("th", v.A("scope", "col"), "Parameters (95 % CI)"),
-		v.TextEl("th", v.A("scope", "col"), "Warnings"))))
-	body := v.El("tbody", nil)
+	var cells [][]string
+	var keys []string
 	for _, f := range rows {
 		stale := !strings.HasPrefix(f.Inputs, data)
-		delta := "—"
-		if !stale && fitGroup(f.Inputs) == group && f.AICc != 0 && !math.IsInf(best, 0) {
-			delta = strconv.FormatFloat(f.AICc-best, 'f', 1, 64)
+		same := fitGroup(f.Inputs) == group
+		delta, aic := "—", "—"
+		if f.AICc != 0 {
+			aic = strconv.FormatFloat(f.AICc, 'f', 1, 64)
+			if !stale && same && !math.IsInf(best, 0) {
+				delta = strconv.FormatFloat(f.AICc-best, 'f', 1, 64)
+			}
 		}
-		var ps []string
-		for _, e := range f.Params {
+		ps := ""
+		for k, e := range f.Params {
 			_, s := estimateText(e, d)
-			ps = append(ps, e.Name+" = "+s)
+			if k > 0 {
+				ps += "; "
+			}
+			ps += e.Name + " = " + s
 		}
 		warn := strings.Join(f.Warnings, " ")
 		switch {
 		case stale:
 			warn = "Readings or settings changed since this fit: fit again to compare. " + warn
-		case fitGroup(f.Inputs) != group:
+		case !same:
 			warn = "Fitted to other readings than the chosen model (AICc not comparable). " + warn
 		}
-		aic := "—"
-		if f.AICc != 0 {
-			aic = strconv.FormatFloat(f.AICc, 'f', 1, 64)
-		}
-		tr := v.El("tr", v.A("data-model", f.Model), v.TextEl("td", nil, modelName(project.Model(f.Model))),
-			v.TextEl("td", nil, strconv.Itoa(f.N)), v.TextEl("td", nil, formatSig(d.Length.FromSI(f.RMSE), 3)),
-			v.TextEl("td", v.A("data-aicc", strconv.FormatFloat(f.AICc, 'g', 10, 64)), aic), v.TextEl("td", v.A("class", "ff-delta"), delta),
-			v.TextEl("td", nil, strings.Join(ps, "; ")), v.TextEl("td", nil, warn))
+		name := modelName(project.Model(f.Model))
 		if project.Model(f.Model) == t.Fit.ModelOrDefault() {
-			tr.Set("class", "ff-chosen")
+			name += " (chosen)"
 		}
-		body.Add(tr.WithKey(f.Model))
+		cells = append(cells, []string{name, strconv.Itoa(f.N), formatSig(d.Length.FromSI(f.RMSE), 3), aic, delta, ps, warn})
+		keys = append(keys, f.Model)
 	}
-	box.Add(v.El("div", v.A("class", "ff-table-wrap"), table.Add(body)))
+	box.Add(dataTable("compare-table", []string{"Model", "N", "RMSE (" + d.Length.Symbol + ")", "AICc", "ΔAICc", "Parameters (95 % CI)", "Warnings"}, cells, keys))
 	return box.Add(v.TextEl("p", v.A("class", "ff-hint"), "A lower AICc means the readings support that model better for its number of parameters; differences under about 2 hardly count (Burnham & Anderson 2002, from memory). It does not make a model right: the choice stays with you — weigh the residuals, the derivative and the warnings too."))
 }
 
@@ -305,4 +301,25 @@ func fitGroup(inputs string) string {
 func hasParam(f *project.ModelFit, name string) bool {
 	_, ok := f.Param(name)
 	return ok
+}
+
+// dataTable is a table of text cells with a header row; keys, when not
+// nil, identify the rows (attribute data-row).
+func dataTable(id string, head []string, rows [][]string, keys []string) *v.Node {
+	tr := v.El("tr", nil)
+	for _, h := range head {
+		tr.Add(v.TextEl("th", v.A("scope", "col"), h))
+	}
+	body := v.El("tbody", nil)
+	for i, r := range rows {
+		row := v.El("tr", nil)
+		if keys != nil {
+			row.Set("data-row", keys[i]).WithKey(keys[i])
+		}
+		for _, c := range r {
+			row.Add(v.TextEl("td", nil, c))
+		}
+		body.Add(row)
+	}
+	return v.El("div", v.A("class", "ff-table-wrap"), v.El("table", v.A("id", id, "class", "ff-compare"), v.El("thead", nil, tr), body))
 }

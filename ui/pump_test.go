@@ -150,9 +150,9 @@ func TestPumpLeakyTwoWells(t *testing.T) {
 	if len(tt.Fits) != len(pumpModels) {
 		t.Fatalf("%d fits stored, want %d: %s", len(tt.Fits), len(pumpModels), h.app.Notice())
 	}
-	rows := h.byID("compare-table").FindAll(func(n *v.Node) bool { return n.Attrs["data-model"] != "" })
-	if len(rows) != len(pumpModels) || rows[0].Attrs["data-model"] != string(project.Hantush) {
-		t.Errorf("comparison rows %d, first %q (want Hantush–Jacob lowest AICc)", len(rows), rows[0].Attrs["data-model"])
+	rows := h.byID("compare-table").FindAll(func(n *v.Node) bool { return n.Attrs["data-row"] != "" })
+	if len(rows) != len(pumpModels) || rows[0].Attrs["data-row"] != string(project.Hantush) {
+		t.Errorf("comparison rows %d, first %q (want Hantush–Jacob lowest AICc)", len(rows), rows[0].Attrs["data-row"])
 	}
 	// Stored: schedule, second well, fits.
 	st := h.stored(p.ID).Tests[0]

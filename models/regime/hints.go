@@ -4,7 +4,6 @@ import (
 	"cmp"
 	"fmt"
 	"math"
-	"slices"
 	"sort"
 
 	"fieldfit/models/diagnostic"
@@ -460,11 +459,13 @@ func (r *run) setLevel(d, slope []float64) {
 		}
 		ps = append(ps, pair{k, d[i]})
 	}
-	slices.SortFunc(ps, func(a, b pair) int {
-		if c := cmp.Compare(a.key, b.key); c != 0 {
-			return c
+	// sort.Slice, already linked, rather than a generic sort of pair:
+	// the order is total (key, then d), so the result is the same.
+	sort.Slice(ps, func(a, b int) bool {
+		if c := cmp.Compare(ps[a].key, ps[b].key); c != 0 {
+			return c < 0
 		}
-		return cmp.Compare(a.d, b.d)
+		return cmp.Compare(ps[a].d, ps[b].d) < 0
 	})
 	half := make([]float64, (len(ps)+1)/2)
 	for k := range half {
