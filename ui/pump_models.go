@@ -263,7 +263,7 @@ func finishFit(req *FitRequest, out *FitOutcome, used string) {
 	if b := req.Thickness; b > 0 && r.T.Value > 0 {
 		r.K = project.Estimate{Value: r.T.Value / b, Lower: r.T.Lower / b, Upper: r.T.Upper / b}
 		r.HasK = true
-		f.Params = append(f.Params, namedEstimate("K", "m/s", r.K.Value, r.K.Lower, r.K.Upper))
+		f.Params = append(f.Params, namedEstimate("K = T/b", "m/s", r.K.Value, r.K.Lower, r.K.Upper))
 	}
 	r.Inputs = req.Fingerprint()
 }

@@ -489,9 +489,5 @@ func paramUnit(sym string, d Display) units.Unit {
 
 // fitModelName is the printed name of a model key of ModelFit.
 func fitModelName(m string) string {
-	switch project.Model(m) {
-	case project.Theis, project.CooperJacob:
-		return modelName(project.Model(m))
-	}
-	return m
+	return modelName(project.Model(m))
 }
