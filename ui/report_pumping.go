@@ -19,12 +19,20 @@ func init() {
 		Label:    "Pumping test",
 		Test:     pumpReportTest,
 		Data:     pumpReportData,
-		Plots:    func(a *App, rc *ReportContext) []*v.Node { return []*v.Node{a.renderPlots(rc.P, rc.T, rc.D)} },
+		Plots:    pumpReportPlots,
 		Fits:     pumpReportFits,
 		After:    pumpReportAfter,
 		Readings: pumpReadingsCSV,
 		Curves:   pumpCurvesCSV,
 	}
+}
+
+// pumpReportPlots are the Fit tab's plots, once there are readings.
+func pumpReportPlots(a *App, rc *ReportContext) []*v.Node {
+	if req, _ := a.fitRequestLocked(rc.T); len(req.Time) == 0 {
+		return nil
+	}
+	return []*v.Node{a.renderPlots(rc.P, rc.T, rc.D)}
 }
 
 func wellName(p *project.Project, id string) string {

@@ -516,3 +516,42 @@ func TestReportLoggerRecord(t *testing.T) {
 		}
 	}
 }
+
+// TestReportEmpty: a project without a test, then a test without wells
+// or readings: the report says what is missing instead of failing, and
+// the exports offer nothing.
+func TestReportEmpty(t *testing.T) {
+	h := newHarness(t, nil)
+	files := make(chan offered, 4)
+	h.app.mu.Lock()
+	h.app.opt.Download = func(name, mime string, data []byte) { files <- offered{name, mime, data} }
+	h.app.mu.Unlock()
+	h.click("new-project")
+	h.click("tab-report")
+	if h.render().ByID("report") != nil || !strings.Contains(h.text("panel-report"), "Add a test first") {
+		t.Errorf("report of a project without tests: %s", h.render().ByID("panel-report"))
+	}
+	h.click("add-test")
+	h.click("tab-report")
+	text := h.text("report")
+	for _, want := range []string{"Site and wells", "Pumping rate Q—", "No fit yet.", "Usable for the fit0 readings",
+		"Missing for a fit", "Enter the static water level", Caution} {
+		if !strings.Contains(text, want) {
+			t.Errorf("report %q lacks %q", text, want)
+		}
+	}
+	if h.render().ByID("report-plots") != nil {
+		t.Error("a plots section without readings")
+	}
+	for _, id := range []string{"export-readings", "export-curves"} {
+		h.click(id)
+		if got := h.text("notice"); !strings.HasPrefix(got, "Nothing to export yet") {
+			t.Errorf("#%s: notice %q", id, got)
+		}
+	}
+	select {
+	case f := <-files:
+		t.Errorf("%s offered with nothing in it", f.name)
+	default:
+	}
+}
