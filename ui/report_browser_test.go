@@ -166,6 +166,11 @@ func TestBrowserReport(t *testing.T) {
 			t.Errorf("the PDF shows the screen's %q", not)
 		}
 	}
+	// Every page is numbered in its margin ("Page 1 of 4").
+	if pages := regexp.MustCompile(`Page 1 of ([0-9]+)`).FindStringSubmatch(flat); pages == nil ||
+		!strings.Contains(flat, "Page "+pages[1]+" of "+pages[1]) {
+		t.Errorf("the pages are not numbered %v", pages)
+	}
 	if n := strings.Count(flat, "Preliminary field interpretation only."); n < 2 {
 		t.Errorf("the caution is printed %d times, want at least 2", n)
 	}
