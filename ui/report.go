@@ -314,11 +314,20 @@ func reportSite(rc *ReportContext) *v.Node {
 		if w.Kind == project.Observation {
 			kind, dist = "observation", shownEntry(w.Distance, L)
 		}
-		if w.ID == t.ObservationWell {
+		read := w.ID == t.ObservationWell
+		if t.Pump != nil {
+			for _, pw := range t.Pump.Wells {
+				read = read || pw.WellID == w.ID
+			}
+		}
+		if read {
 			kind += ", readings"
 		}
-		rows = append(rows, []string{orNone(w.Name), kind, dist, shownEntry(w.Radius, L),
-			shownEntry(w.ScreenTop, L) + " – " + shownEntry(w.ScreenBottom, L), shownEntry(w.MPElevation, L)})
+		screen := "—"
+		if w.ScreenTop.OK || w.ScreenBottom.OK {
+			screen = shownEntry(w.ScreenTop, L) + " – " + shownEntry(w.ScreenBottom, L)
+		}
+		rows = append(rows, []string{orNone(w.Name), kind, dist, shownEntry(w.Radius, L), screen, shownEntry(w.MPElevation, L)})
 	}
 	return reportSection("report-site", "Site and wells",
 		reportPairs("report-site-table", [][2]string{{"Site", orNone(p.Site)}, {"Aquifer thickness b", shownEntry(p.Thickness, L)}}),

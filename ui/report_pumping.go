@@ -70,6 +70,25 @@ func pumpReportTest(a *App, rc *ReportContext) []*v.Node {
 		{"Derivative smoothing L", strconv.FormatFloat(f.SmoothingOrDefault(), 'g', 3, 64) + " log cycles"},
 	}
 	var rs [][]string
+	if pd := t.Pump; pd != nil {
+		rows = append(rows, [2]string{"Pump stopped", minutesText(pd.Stop, "")})
+		if pd.Jacob {
+			rows = append(rows, [2]string{"Unconfined aquifer", "Jacob's correction s′ = s − s²/(2b) applied"})
+		}
+		if pd.Boundary > 0 {
+			rows = append(rows, [2]string{"Distance to the boundary (given)", formatSig(d.Length.FromSI(pd.Boundary), 4) + " " + d.Length.Symbol})
+		}
+		for _, w := range pd.Wells {
+			rows = append(rows, [2]string{"Also read in", wellName(p, w.WellID) + ": " + countWord(len(w.Readings), "row") +
+				", static level " + shownEntry(w.StaticLevel, d.Length)})
+		}
+		if len(pd.Steps) > 0 {
+			rs = append(rs, []string{"0", shownEntry(t.Rate, rateUnit(t, d))})
+		}
+		for _, st := range pd.Steps {
+			rs = append(rs, []string{orNone(st.StartText), orNone(st.RateText) + " " + rateUnit(t, d).Symbol})
+		}
+	}
 	if lg := t.Logger; lg != nil && lg.Water != nil {
 		rows = append(rows, [2]string{"Pump start and stop on the logger record", orNone(lg.Texts.Start) + " to " + orNone(lg.Texts.Stop)})
 		for _, r := range lg.Rates {

@@ -555,3 +555,44 @@ func TestReportEmpty(t *testing.T) {
 	default:
 	}
 }
+
+// TestReportLeakyDemo: the example's second test (leaky, with recovery,
+// read in two wells, fitted with every pumping model) shows its stop, its
+// second well and the comparison of the models with ΔAICc.
+func TestReportLeakyDemo(t *testing.T) {
+	h, _, _ := reportHarness(t)
+	h.input("test-select", "1")
+	h.click("tab-report")
+	cur := h.app.Current().Tests[1]
+	if cur.Pump == nil || len(cur.Pump.Wells) == 0 || len(cur.Fits) < 2 {
+		t.Skipf("the example's second test is not the leaky two-well test any more: %+v", cur.Pump)
+	}
+	test := h.text("report-test-table")
+	for _, want := range []string{"Pump stopped" + formatSig(cur.Pump.Stop/units.Minute, 3) + " min", "Also read in",
+		"OW-3 (orchard): " + countWord(len(cur.Pump.Wells[0].Readings), "row")} {
+		if !strings.Contains(test, want) {
+			t.Errorf("test and schedule %q lacks %q", test, want)
+		}
+	}
+	if !strings.Contains(h.text("report-wells"), "OW-3 (orchard)observation, readings") {
+		t.Errorf("the second well is not marked as read: %q", h.text("report-wells"))
+	}
+	fits := h.byID("report-fits-table")
+	// One ΔAICc of 0.0 (the best) and one per other model fitted to the
+	// same readings.
+	var zero, models int
+	for _, tr := range fits.FindAll(func(n *v.Node) bool { return n.Tag == "tr" }) {
+		if len(tr.Children) == 8 && tr.Children[0].TextContent() != "" && tr.Children[0].TextContent() != "Model" {
+			models++
+			if tr.Children[7].TextContent() == "0.0" {
+				zero++
+			}
+		}
+	}
+	if models != len(cur.Fits) || zero != 1 {
+		t.Errorf("%d model rows (want %d), %d with ΔAICc 0.0 (want 1): %q", models, len(cur.Fits), zero, fits.TextContent())
+	}
+	if !strings.Contains(fits.TextContent(), "Hantush") {
+		t.Errorf("no Hantush–Jacob row: %q", fits.TextContent())
+	}
+}
