@@ -52,6 +52,12 @@ type Options struct {
 	// RasterPNG draws an SVG document as a PNG image of w × h pixels
 	// (the browser's canvas); nil offers SVG exports only.
 	RasterPNG func(ctx context.Context, svg []byte, w, h float64) ([]byte, error)
+	// Journal, if not nil, keeps an unsaved project synchronously when
+	// the page is hidden (see FlushSave); it is read back on Start.
+	Journal Journal
+	// Saved, if not nil, is called after a project was written to the
+	// store at revision rev, to tell other tabs (see OtherTabSaved).
+	Saved func(id string, rev int64)
 }
 
 // Screen names the two screens of the app.
@@ -169,7 +175,7 @@ func NewApp(opt Options) *App {
 }
 
 // Start reads the project list in the background.
-func (a *App) Start() { a.reloadList() }
+func (a *App) Start() { a.recoverJournal() }
 
 // Screen returns the current screen.
 func (a *App) Screen() Screen {
@@ -484,7 +490,11 @@ func (a *App) putLocked(ctx context.Context, p *project.Project, prev store.Reco
 	if err != nil {
 		return err
 	}
-	return a.opt.Store.Put(ctx, withMarks(store.Record{ID: p.ID, Name: p.Name, Rev: p.Rev, Changed: p.Changed, Data: data}, prev))
+	if err := a.opt.Store.Put(ctx, withMarks(store.Record{ID: p.ID, Name: p.Name, Rev: p.Rev, Changed: p.Changed, Data: data}, prev)); err != nil {
+		return err
+	}
+	a.saved(p.ID, p.Rev)
+	return nil
 }
 
 // AskDelete asks for confirmation before deleting a project.
@@ -674,10 +684,13 @@ func (a *App) flushSaveLocked() {
 	a.startSaveLocked()
 }
 
-// FlushSave starts any pending save at once (the page is being hidden).
+// FlushSave starts any pending save at once (the page is being hidden),
+// and writes the unsaved project to the journal (see Options.Journal),
+// as the save may not finish before the page goes.
 func (a *App) FlushSave() {
 	a.mu.Lock()
 	defer a.mu.Unlock()
+	a.journalLocked()
 	a.flushSaveLocked()
 }
 

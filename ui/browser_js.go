@@ -29,7 +29,10 @@ func RunBrowser(container js.Value, st store.Store, problem error) *App {
 		Download:  share,
 		Print:     printPage,
 		RasterPNG: rasterPNG,
+		Saved:     otherTabs.post,
+		Journal:   localJournal{},
 	})
+	otherTabs.listen(app)
 	r := view.Mount(container, app.Render, func(r *view.Root) {
 		r.OnPanic = app.Recovered
 		r.AfterRender = func() {
@@ -57,6 +60,100 @@ func RunBrowser(container js.Value, st store.Store, problem error) *App {
 	})
 	app.Start()
 	return app
+}
+
+// tabs tells the other Fieldfit tabs and windows of this device which
+// project was saved, over a BroadcastChannel (where the browser has one).
+var otherTabs = newTabChannel()
+
+type tabChannel struct{ ch js.Value }
+
+func newTabChannel() *tabChannel {
+	c := &tabChannel{}
+	if bc := js.Global().Get("BroadcastChannel"); bc.Truthy() {
+		c.ch = bc.New("fieldfit-projects")
+	}
+	return c
+}
+
+func (c *tabChannel) post(id string, rev int64) {
+	if !c.ch.Truthy() {
+		return
+	}
+	c.ch.Call("postMessage", map[string]any{"id": id, "rev": float64(rev)})
+}
+
+func (c *tabChannel) listen(app *App) {
+	if !c.ch.Truthy() {
+		return
+	}
+	c.ch.Call("addEventListener", "message", js.FuncOf(func(_ js.Value, args []js.Value) any {
+		defer recoverTo(app)
+		d := args[0].Get("data")
+		if d.Type() == js.TypeObject && d.Get("id").Type() == js.TypeString && d.Get("rev").Type() == js.TypeNumber {
+			app.OtherTabSaved(d.Get("id").String(), int64(d.Get("rev").Float()))
+		}
+		return nil
+	}))
+}
+
+// localJournal is the Journal in window.localStorage (synchronous, so
+// that it is written before a closing page goes).
+type localJournal struct{}
+
+func (localJournal) storage() (v js.Value) {
+	defer func() {
+		if recover() != nil {
+			v = js.Undefined()
+		}
+	}()
+	return js.Global().Get("localStorage")
+}
+
+func (j localJournal) Write(key, data string) (ok bool) {
+	defer func() {
+		if recover() != nil { // QuotaExceededError, or storage turned off
+			ok = false
+		}
+	}()
+	ls := j.storage()
+	if !ls.Truthy() {
+		return false
+	}
+	ls.Call("setItem", key, data)
+	return true
+}
+
+func (j localJournal) Keys() (keys []string) {
+	defer func() { _ = recover() }()
+	ls := j.storage()
+	if !ls.Truthy() {
+		return nil
+	}
+	for i := 0; i < ls.Get("length").Int(); i++ {
+		keys = append(keys, ls.Call("key", i).String())
+	}
+	return keys
+}
+
+func (j localJournal) Read(key string) (s string) {
+	defer func() { _ = recover() }()
+	ls := j.storage()
+	if !ls.Truthy() {
+		return ""
+	}
+	v := ls.Call("getItem", key)
+	if v.Type() != js.TypeString {
+		return ""
+	}
+	return v.String()
+}
+
+func (j localJournal) Remove(key string) {
+	defer func() { _ = recover() }()
+	if ls := j.storage(); ls.Truthy() {
+		ls.Call("removeItem", key)
+	}
 }
 
 func recoverTo(a *App) {

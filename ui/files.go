@@ -49,6 +49,17 @@ type pendingMerge struct {
 	queue []*pendingMerge
 }
 
+// fromText names the incoming copy's source in a sentence.
+func (pm *pendingMerge) fromText() string {
+	if pm.from == "" {
+		return "the changes of another tab or window"
+	}
+	if strings.HasPrefix(pm.from, "unsaved") {
+		return "the " + pm.from
+	}
+	return "“" + pm.from + "”"
+}
+
 func (f *filesState) opened() {
 	f.fp, f.rec, f.merge = nil, store.Record{}, nil
 }
@@ -136,8 +147,60 @@ func (a *App) saveChecked(ctx context.Context, p *project.Project) error {
 	if a.cur != nil && a.cur.ID == p.ID {
 		a.files.rec = r
 	}
+	if a.screen == ListScreen {
+		a.reloadListLocked() // the list may have been read before this save
+	}
 	a.mu.Unlock()
+	a.saved(p.ID, p.Rev)
+	a.dropJournal(p.ID, p.Rev)
 	return nil
+}
+
+// saved tells other tabs that project id was written at revision rev.
+func (a *App) saved(id string, rev int64) {
+	if a.opt.Saved != nil {
+		a.opt.Saved(id, rev)
+	}
+}
+
+// OtherTabSaved is told that another tab or window wrote project id at
+// revision rev. The list is read again; an open copy of that project
+// with no unsaved change is read again too (one with unsaved changes is
+// merged when it is saved, see saveChecked).
+func (a *App) OtherTabSaved(id string, rev int64) {
+	a.mu.Lock()
+	defer a.mu.Unlock()
+	if a.cur == nil {
+		if a.screen == ListScreen {
+			a.reloadListLocked()
+		}
+		return
+	}
+	if a.cur.ID != id || rev == a.files.rec.Rev || a.dirty || a.files.merge != nil {
+		return
+	}
+	if _, saving := a.busy["save-"+id]; saving {
+		return
+	}
+	a.goBusy("refresh-"+id, "Reading the changes of another tab…", func(ctx context.Context) {
+		rec, err := a.opt.Store.Get(ctx, id)
+		var p *project.Project
+		if err == nil {
+			p, err = project.Unmarshal(rec.Data)
+		}
+		a.mu.Lock()
+		defer a.mu.Unlock()
+		if err != nil || a.cur == nil || a.cur.ID != id || a.dirty || rec.Rev == a.files.rec.Rev {
+			return
+		}
+		tab, idx := a.tab, a.testIdx
+		a.openLocked(p, tab)
+		a.files.openedStored(p, rec)
+		if idx < len(p.Tests) {
+			a.testIdx = idx
+		}
+		a.notice = "Updated with the changes saved in another tab or window."
+	})
 }
 
 // ---- import ----
@@ -368,7 +431,8 @@ func (a *App) ApplyMerge() {
 		if err != nil {
 			a.notice = "“" + merged.Name + "” was not merged: " + err.Error()
 		} else {
-			a.notice = "“" + merged.Name + "” was merged with “" + pm.from + "”."
+			a.notice = "“" + merged.Name + "” was merged with " + pm.fromText() + "."
+			a.dropJournal(merged.ID, merged.Rev)
 		}
 		a.reloadListLocked()
 	})

@@ -53,8 +53,11 @@ func (a *App) renderMerge() *v.Node {
 	m := pm.m
 	s := v.El("section", v.A("id", "screen-merge", "class", "ff-screen"))
 	from := "the file “" + pm.from + "”"
-	if pm.from == "" {
+	switch {
+	case pm.from == "":
 		from = "another tab or window"
+	case strings.HasPrefix(pm.from, "unsaved"):
+		from = "the " + pm.from
 	}
 	s.Add(v.TextEl("h2", nil, "“"+m.Local.Name+"”: changed on this device and in "+from))
 	s.Add(v.TextEl("p", v.A("class", "ff-hint"), "Parts changed on one side only are taken as they are ("+

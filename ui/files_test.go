@@ -275,3 +275,51 @@ func TestExportAll(t *testing.T) {
 		}
 	}
 }
+
+// TestTwoTabs runs two Apps on one store, as two tabs on one device: a
+// save never overwrites the other's changes silently.
+func TestTwoTabs(t *testing.T) {
+	st := store.NewMemory()
+	a := newHarness(t, st)
+	id := makeProject(a, "Godwit Marsh")
+	b := newHarness(t, st)
+	a.app.Open(id)
+	a.settle()
+	b.app.Open(id)
+	b.settle()
+
+	// Different objects: both kept, each tab's save merging the other's.
+	a.click("tab-wells")
+	a.input("well-0-name", "OW-A")
+	b.input("r-0-depth", "7.333")
+	p := a.stored(id)
+	if p.Wells[0].Name != "OW-A" || p.Tests[0].Readings[0].DepthText != "7.333" {
+		t.Fatalf("after two tabs' saves: well %q, reading %q", p.Wells[0].Name, p.Tests[0].Readings[0].DepthText)
+	}
+	if !strings.Contains(b.app.Notice(), "another tab") {
+		t.Errorf("tab B was not told of the merge: %q", b.app.Notice())
+	}
+	// Tab A hears of B's save and reads it again.
+	a.app.OtherTabSaved(id, p.Rev)
+	a.settle()
+	if got := a.app.Current().Tests[0].Readings[0].DepthText; got != "7.333" {
+		t.Errorf("tab A shows %q after the other tab's save", got)
+	}
+
+	// The same reading in both: the second save stops for a decision.
+	a.click("tab-readings")
+	a.input("r-0-depth", "7.401")
+	b.input("r-0-depth", "7.402")
+	if !b.app.MergePending() {
+		t.Fatal("tab B overwrote tab A's reading without asking")
+	}
+	if got := b.stored(id).Tests[0].Readings[0].DepthText; got != "7.401" {
+		t.Errorf("stored %q before the decision, want tab A's 7.401", got)
+	}
+	testID := p.Tests[0].ID
+	b.click("merge-local-" + testID)
+	b.click("merge-apply")
+	if got := b.stored(id).Tests[0].Readings[0].DepthText; got != "7.402" || b.app.MergePending() {
+		t.Errorf("stored %q after keeping tab B's, pending %v", got, b.app.MergePending())
+	}
+}

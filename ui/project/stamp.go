@@ -117,7 +117,9 @@ const DetailsKey = "details"
 // Fingerprints returns a hash of the content of each object of p (the
 // details under DetailsKey, each well and test under its ID), leaving out
 // the stamps and revision counters, so that Touch can tell which objects
-// changed. Logger readings are identified by their record ID (a record's
+// changed. What the app derives is left out too (the parsed values of
+// readings, fit results), so that a refit or a re-parse on opening is not
+// taken for an edit. Logger readings are identified by their record ID (a record's
 // readings never change once imported), so a fingerprint does not cost a
 // pass over a million readings.
 func Fingerprints(p *Project) map[string]uint64 {
@@ -134,6 +136,16 @@ func Fingerprints(p *Project) map[string]uint64 {
 	for i := range p.Tests {
 		t := p.Tests[i]
 		t.Stamp = Stamp{}
+		// What the app derives from the rest is no change of its own:
+		// the parsed values of the readings, the fit results (they
+		// follow the readings and settings, and carry the time of the
+		// fit).
+		t.Result, t.Fits = nil, nil
+		rs := make([]Reading, len(t.Readings))
+		for j, r := range t.Readings {
+			rs[j] = Reading{TimeText: r.TimeText, DepthText: r.DepthText}
+		}
+		t.Readings = rs
 		if t.Logger != nil {
 			lg := *t.Logger
 			lg.Water, lg.Baro = lg.Water.withoutSamples(), lg.Baro.withoutSamples()

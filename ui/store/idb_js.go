@@ -498,6 +498,28 @@ func domName(err error) string {
 			return n
 		}
 	}
+	// A DOMException thrown by a call (put may throw QuotaExceededError
+	// at once) comes as a js.Error.
+	var jsErr js.Error
+	if errors.As(err, &jsErr) {
+		if name := jsName(jsErr.Value); name != "" {
+			for _, n := range domNames {
+				if n == name {
+					return n
+				}
+			}
+		}
+	}
+	return ""
+}
+
+func jsName(v js.Value) (name string) {
+	defer func() { _ = recover() }()
+	if v.Type() == js.TypeObject {
+		if n := v.Get("name"); n.Type() == js.TypeString {
+			return n.String()
+		}
+	}
 	return ""
 }
 
@@ -519,6 +541,10 @@ func recoverJS(err *error, op, id string) {
 		return
 	}
 	if jsErr, ok := r.(js.Error); ok {
+		if n := domName(jsErr); n != "" {
+			*err = wrapDOM(op, id, n, jsErr)
+			return
+		}
 		*err = &Error{Op: op, ID: id, Err: fmt.Errorf("%w: %v", ErrUnavailable, jsErr)}
 		return
 	}

@@ -36,6 +36,7 @@ import (
 
 	"github.com/chromedp/cdproto/network"
 	"github.com/chromedp/cdproto/page"
+	"github.com/chromedp/cdproto/storage"
 	"github.com/chromedp/chromedp"
 
 	"fieldfit/web/bundle"
@@ -241,6 +242,36 @@ func Open(t testing.TB) *Page {
 		t.Fatalf("webtest: %s did not start within %v", Chromium, timeout())
 	}
 
+	p.listen()
+	return p
+}
+
+// NewTab opens another tab of the same browser (same profile, so the
+// same IndexedDB and BroadcastChannel), closed when the test ends.
+func (p *Page) NewTab() *Page {
+	p.T.Helper()
+	ctx, cancel := chromedp.NewContext(p.Ctx)
+	p.T.Cleanup(cancel)
+	q := &Page{T: p.T, Ctx: ctx}
+	start, scancel := context.WithTimeout(context.Background(), timeout())
+	defer scancel()
+	done := make(chan error, 1)
+	go func() { done <- chromedp.Do(ctx) }()
+	select {
+	case err := <-done:
+		if err != nil {
+			p.T.Fatalf("webtest: opening a tab: %v", err)
+		}
+	case <-start.Done():
+		p.T.Fatalf("webtest: a new tab did not open within %v", timeout())
+	}
+	q.listen()
+	return q
+}
+
+// listen collects the tab's console messages and requests.
+func (p *Page) listen() {
+	ctx := p.Ctx
 	console := chromedp.Console(ctx)
 	requests := chromedp.Events(ctx, network.RequestWillBeSent)
 	go func() {
@@ -263,7 +294,6 @@ func Open(t testing.TB) *Page {
 			p.mu.Unlock()
 		}
 	}()
-	return p
 }
 
 // removeAll removes the profile folder, retrying while the browser's last
@@ -350,6 +380,22 @@ func (p *Page) BeforeLoad(script string) {
 	defer cancel()
 	if _, err := chromedp.Call(ctx, page.AddScriptToEvaluateOnNewDocument, page.AddScriptToEvaluateOnNewDocumentParams{Source: script}); err != nil {
 		p.T.Fatalf("webtest: %v", err)
+	}
+}
+
+// SetQuota sets the storage quota of origin to bytes, as a nearly full
+// device has it (Storage.overrideQuotaForOrigin); bytes < 0 gives back
+// the browser's own quota.
+func (p *Page) SetQuota(origin string, bytes float64) {
+	p.T.Helper()
+	ctx, cancel := p.step()
+	defer cancel()
+	params := storage.OverrideQuotaForOriginParams{Origin: origin}
+	if bytes >= 0 {
+		params.QuotaSize = &bytes
+	}
+	if _, err := chromedp.Call(ctx, storage.OverrideQuotaForOrigin, params); err != nil {
+		p.T.Fatalf("webtest: setting the storage quota: %v", err)
 	}
 }
 
