@@ -37,13 +37,13 @@ func pumpingPart(req *FitRequest) (ts, ss []float64) {
 	return ts, ss
 }
 
-// renderHints shows the flow-regime hints of the main well's drawdown
-// while pumping, and whether pumping can stop.
-func renderHints(t *project.Test, req *FitRequest, d Display) *v.Node {
-	box := v.El("div", v.A("id", "hints", "class", "ff-card"), v.TextEl("h3", nil, "What the derivative suggests"))
+// pumpHints are the flow-regime hints of the main well's drawdown while
+// pumping, as suggestions with their reason, and, while the pump runs,
+// whether pumping can stop ("" after the stop).
+func pumpHints(t *project.Test, req *FitRequest, d Display) (hints []string, stop string, flat bool) {
 	ts, ss := pumpingPart(req)
 	if len(ts) < 5 {
-		return box.Add(v.TextEl("p", v.A("class", "ff-hint"), "Hints appear from 5 readings taken while pumping."))
+		return []string{"Hints appear from 5 readings taken while pumping."}, "", false
 	}
 	win := diagnostic.WindowFromCycles(t.Fit.SmoothingOrDefault())
 	q := req.Q
@@ -51,41 +51,57 @@ func renderHints(t *project.Test, req *FitRequest, d Display) *v.Node {
 		q = 0 // the rate changes: no T from a flat stretch
 	}
 	dg, err := regime.Diagnose(ts, ss, &regime.Settings{Rate: q, Window: win})
-	ul := v.El("ul", v.A("id", "hint-list", "class", "ff-hints"))
 	switch {
 	case err != nil:
-		ul.Add(v.TextEl("li", nil, "No hints: "+err.Error()))
+		hints = append(hints, "No hints: "+err.Error())
 	case len(dg.Hints) == 0:
-		ul.Add(v.TextEl("li", nil, "No clear pattern in the derivative yet (no stretch of half a log cycle that is flat, rising, falling or of unit slope)."))
-	default:
+		hints = append(hints, "No clear pattern in the derivative yet (no stretch of half a log cycle that is flat, rising, falling or of unit slope).")
+	}
+	if err == nil {
 		for _, h := range dg.Hints {
 			s := "Suggestion: " + h.Text
 			if h.Kind == regime.Flat && h.T > 0 {
 				s += " This level implies T ≈ " + formatSig(d.Transmissivity.FromSI(h.T), 3) + " " + d.Transmissivity.Symbol + "."
 			}
-			ul.Add(v.TextEl("li", v.A("data-kind", h.Kind.String()), s))
+			hints = append(hints, s)
 		}
+	}
+	if req.Stop > 0 {
+		return hints, "", false
+	}
+	st, err := regime.CanStop(ts, ss, &regime.StopSettings{Window: win})
+	if err != nil {
+		return hints, "Cannot tell: " + err.Error(), false
+	}
+	stop = st.Text
+	if st.Remaining > 0 {
+		stop += " One more log cycle of flat derivative at " + formatSig(st.OneCycleAt/units.Minute, 3) + " min, " +
+			formatSig(st.Remaining/units.Minute, 3) + " min from the last reading."
+	}
+	return hints, stop, st.Flat
+}
+
+// hintsNote says what the hints are.
+const hintsNote = "Hints and the stop indicator are suggestions from the shape of the derivative (tolerances of common practice); judge them with the plots."
+
+// renderHints shows the flow-regime hints and the stop indicator.
+func renderHints(t *project.Test, req *FitRequest, d Display) *v.Node {
+	box := v.El("div", v.A("id", "hints", "class", "ff-card"), v.TextEl("h3", nil, "What the derivative suggests"))
+	hints, stop, flat := pumpHints(t, req, d)
+	ul := v.El("ul", v.A("id", "hint-list", "class", "ff-hints"))
+	for _, h := range hints {
+		ul.Add(v.TextEl("li", nil, h))
 	}
 	box.Add(ul)
-	if req.Stop == 0 {
-		st, err := regime.CanStop(ts, ss, &regime.StopSettings{Window: win})
-		text, class := "", "ff-stop"
-		if err != nil {
-			text = "Cannot tell: " + err.Error()
-		} else {
-			text = st.Text
-			if st.Flat {
-				class += " ff-stop-yes"
-			}
-			if st.Remaining > 0 {
-				text += " One more log cycle of flat derivative at " + formatSig(st.OneCycleAt/units.Minute, 3) + " min, " +
-					formatSig(st.Remaining/units.Minute, 3) + " min from the last reading."
-			}
+	if stop != "" {
+		class := "ff-stop"
+		if flat {
+			class += " ff-stop-yes"
 		}
 		box.Add(v.El("div", v.A("id", "can-stop", "class", class, "role", "status"),
-			v.TextEl("strong", nil, "Can pumping stop? "), v.T(text)))
+			v.TextEl("strong", nil, "Can pumping stop? "), v.T(stop)))
 	}
-	return box.Add(v.TextEl("p", v.A("class", "ff-hint"), "Hints and the stop indicator are suggestions from the shape of the derivative (tolerances of common practice); judge them with the plots."))
+	return box.Add(v.TextEl("p", v.A("class", "ff-hint"), hintsNote))
 }
 
 // stepPanel is the step-drawdown analysis, shown when the schedule has

@@ -303,23 +303,15 @@ func hasParam(f *project.ModelFit, name string) bool {
 	return ok
 }
 
-// dataTable is a table of text cells with a header row; keys, when not
-// nil, identify the rows (attribute data-row).
+// dataTable is reportTable in a scrolling wrapper; keys, when not nil,
+// identify the rows (attribute data-row).
 func dataTable(id string, head []string, rows [][]string, keys []string) *v.Node {
-	tr := v.El("tr", nil)
-	for _, h := range head {
-		tr.Add(v.TextEl("th", v.A("scope", "col"), h))
-	}
-	body := v.El("tbody", nil)
-	for i, r := range rows {
-		row := v.El("tr", nil)
+	tb := reportTable(id, head, rows)
+	tb.Set("class", "ff-compare")
+	for i, tr := range tb.Children[1].Children {
 		if keys != nil {
-			row.Set("data-row", keys[i]).WithKey(keys[i])
+			tr.Set("data-row", keys[i]).WithKey(keys[i])
 		}
-		for _, c := range r {
-			row.Add(v.TextEl("td", nil, c))
-		}
-		body.Add(row)
 	}
-	return v.El("div", v.A("class", "ff-table-wrap"), v.El("table", v.A("id", id, "class", "ff-compare"), v.El("thead", nil, tr), body))
+	return v.El("div", v.A("class", "ff-table-wrap"), tb)
 }

@@ -182,6 +182,16 @@ func TestPumpLeakyTwoWells(t *testing.T) {
 		t.Errorf("recovery line T %v, models.RecoveryLine %v", T.Value, rl.T)
 	}
 	h.byID("result-Sratio")
+
+	// The report carries the stop, the second well, every fit and the
+	// hints.
+	h.click("tab-report")
+	rep := h.text("report")
+	for _, want := range []string{"Pump stopped360", "Also read inCH-B", "Hantush–Jacob", "Theis recovery line", "Suggestion:"} {
+		if !strings.Contains(rep, want) {
+			t.Errorf("the report lacks %q", want)
+		}
+	}
 }
 
 // TestPumpBadInputs checks that each model's bad inputs give a message

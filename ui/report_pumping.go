@@ -156,7 +156,15 @@ func pumpReportAfter(a *App, rc *ReportContext) []*v.Node {
 	if req, missing := a.fitRequestLocked(t); len(missing) == 0 && req.Fingerprint() != r.Inputs {
 		rows = append(rows, [2]string{"Attention", "The readings or settings changed after this fit: fit again before relying on it."})
 	}
-	return []*v.Node{reportSection("report-validity", "Fit and validity", reportPairs("report-validity-table", rows))}
+	req, _ := a.fitRequestLocked(t)
+	hints, stop, _ := pumpHints(t, &req, rc.D)
+	var hr [][2]string
+	for _, h := range hints {
+		hr = append(hr, [2]string{"Derivative", h})
+	}
+	hr = append(hr, [2]string{"Can pumping stop?", stop}, [2]string{"Note", hintsNote})
+	return []*v.Node{reportSection("report-validity", "Fit and validity", reportPairs("report-validity-table", rows)),
+		reportSection("report-hints", "Flow-regime hints", reportPairs("report-hints-table", hr))}
 }
 
 // pumpReadingsCSV is the readings the fit uses: every row of the tape

@@ -104,7 +104,7 @@ func TestReportSections(t *testing.T) {
 		return true
 	})
 	if got, want := strings.Join(ids, " "), "report-title report-caution-top report-site report-test report-data "+
-		"report-plots report-fits report-validity report-notes report-caution"; got != want {
+		"report-plots report-fits report-validity report-hints report-notes report-caution"; got != want {
 		t.Errorf("sections\n%s\nwant\n%s", got, want)
 	}
 	for _, want := range []string{"Larkspur Dairy", "PW-1", "OW-1", "9.5 L/s", "25 rows in the readings table",
