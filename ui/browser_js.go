@@ -175,8 +175,12 @@ func share(filename, mime string, data []byte) {
 	}
 	arr := js.Global().Get("Uint8Array").New(len(data))
 	js.CopyBytesToJS(arr, data)
-	file := js.Global().Get("File").New(js.Global().Get("Array").New(arr), filename, map[string]any{"type": mime})
-	what := map[string]any{"files": js.Global().Get("Array").New(file), "title": filename}
+	opts := js.Global().Get("Object").New()
+	opts.Set("type", mime)
+	file := js.Global().Get("File").New(js.Global().Get("Array").New(arr), filename, opts)
+	what := js.Global().Get("Object").New()
+	what.Set("files", js.Global().Get("Array").New(file))
+	what.Set("title", filename)
 	if !nav.Call("canShare", what).Truthy() {
 		download(filename, mime, data)
 		return
