@@ -126,7 +126,8 @@ type App struct {
 	saveMu    sync.Mutex // orders Puts
 	removeArm string     // well ID whose remove button was pressed once
 
-	fit fitState
+	fit  fitState
+	kfit kindState // the fit step of a slug, infiltration or decay test
 
 	imp  *importState // a logger file being imported, nil when none
 	pick string       // "start" or "stop": the next tap on the raw plot sets it

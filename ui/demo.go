@@ -97,5 +97,8 @@ func DemoProject(ctx context.Context, now time.Time, fit func(context.Context, F
 	if err := addLeakyDemo(ctx, p, pw.ID, fit); err != nil {
 		return nil, err
 	}
+	if err := demoKindTests(ctx, p, ow.ID); err != nil {
+		return nil, err
+	}
 	return p, nil
 }

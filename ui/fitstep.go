@@ -136,6 +136,10 @@ func (a *App) runFitLocked() {
 	if t == nil {
 		return
 	}
+	if t.Kind != project.PumpingTest {
+		a.runKindFitLocked(t)
+		return
+	}
 	if a.fit.running {
 		a.fit.again = true
 		return

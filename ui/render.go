@@ -235,6 +235,9 @@ func (a *App) renderProject() *v.Node {
 	}
 	s.Add(nav)
 	panel := v.El("div", v.A("id", "panel-"+a.tab, "class", "ff-panel", "role", "tabpanel"))
+	if k := a.renderKindTab(a.tab); k != nil {
+		return s.Add(panel.Add(k))
+	}
 	switch a.tab {
 	case TabWells:
 		panel.Add(a.renderWells())
@@ -425,7 +428,8 @@ func (a *App) testSelector() *v.Node {
 			}
 		}))
 	}
-	row.Add(button("add-test", "+ Another test", "ff-btn ff-small", a.AddTest))
+	row.Add(button("add-test", "+ Pumping test", "ff-btn ff-small", a.AddTest))
+	row.Add(a.kindAddButtons()...)
 	return row
 }
 

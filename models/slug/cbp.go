@@ -298,6 +298,15 @@ func (m CBP) Jacobian(dst *mat.Dense, t, p []float64) {
 			continue
 		}
 		_, dA, dB := q.eval(b, true)
+		// At α far below the published curves (S → 0 on data that
+		// fall as one exponential) the α-derivative underflows to NaN:
+		// the curve no longer depends on α there, so it is 0.
+		if bad(dA) {
+			dA = 0
+		}
+		if bad(dB) {
+			dB = 0
+		}
 		dst.Set(i, 0, dB*ti/rc2)
 		dst.Set(i, 1, dA*ra)
 	}
@@ -471,6 +480,13 @@ func CooperBredehoeftPapadopulos(t Test, s *Settings) (*Result, error) {
 		r.K = models.Estimate{ParamInfo: kInfo, Value: math.NaN(), StdErr: math.NaN(), Lower: math.NaN(), Upper: math.NaN()}
 	}
 	r.KIn = convert(r.K, kUnits)
+	if a := g.WellRadius * g.WellRadius * S.Value / (m.CasingRadius * m.CasingRadius); a < cbpMinAlpha {
+		r.Caveats = append(r.Caveats, fmt.Sprintf("The fit ran to α = r_w²S/r_c² = %.3g, below %g, the smallest α of the type curves of Cooper, Bredehoeft & Papadopulos (1967) (from memory): S is not determined by these readings and its interval means nothing. Readings that fall as one exponential are better read by Hvorslev or Bouwer–Rice.", a, cbpMinAlpha))
+	}
 	r.Caveats = append(r.Caveats, fr.Caveats...)
 	return r, err
 }
+
+// cbpMinAlpha is the smallest α of the published type curves of Cooper,
+// Bredehoeft & Papadopulos (1967), 1e-10 (from memory).
+const cbpMinAlpha = 1e-10

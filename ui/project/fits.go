@@ -40,6 +40,10 @@ type NamedEstimate struct {
 	Value float64 `json:"value"`
 	Lower float64 `json:"lower"`
 	Upper float64 `json:"upper"`
+	// NoCI says that the fit gave no confidence interval (the
+	// parameters cannot be told apart from the data); Lower and Upper
+	// are then 0.
+	NoCI bool `json:"noCI,omitempty"`
 }
 
 // ModelFit is the outcome of fitting one model to a test, in SI units:
@@ -62,6 +66,9 @@ type ModelFit struct {
 	Status     string  `json:"status,omitempty"`
 	// Warnings are plain sentences: identifiability, validity, data.
 	Warnings []string `json:"warnings,omitempty"`
+	// Notes are plain sentences about the fit that are not warnings: the
+	// assumptions of the method, how H0 was found, plausibility lines.
+	Notes []string `json:"notes,omitempty"`
 	// Inputs fingerprints the data and settings that were fitted, so a
 	// stale fit can be told from a current one.
 	Inputs string    `json:"inputs,omitempty"`

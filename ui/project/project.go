@@ -165,6 +165,10 @@ type Test struct {
 	// Logger holds the imported logger records and their conditioning;
 	// nil before the first import.
 	Logger *LoggerData `json:"logger,omitempty"`
+	// Setup is the entry form, readings and fit settings of a slug test,
+	// infiltration test or decay curve (see KindSetup); nil for a
+	// pumping test.
+	Setup *KindSetup `json:"setup,omitempty"`
 	// Stamp is the test's revision record: every field of the test,
 	// also those added later, counts as a change of the test.
 	Stamp Stamp `json:"stamp"`
@@ -368,7 +372,8 @@ func (p *Project) Clone() *Project {
 		}
 		t.Logger = t.Logger.clone()
 		t.Pump = t.Pump.clone()
-		t.Fits = append([]ModelFit(nil), t.Fits...)
+		t.Setup = t.Setup.clone()
+		t.Fits = cloneFits(t.Fits)
 		q.Tests[i] = t
 	}
 	return &q
