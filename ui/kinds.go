@@ -480,6 +480,12 @@ func (a *App) AddKindTest(kind project.TestKind) {
 	}
 	t := project.Test{ID: project.NewID(), Kind: kind, Name: d.noun + " " + strconv.Itoa(n),
 		Readings: []project.Reading{}, Setup: &project.KindSetup{}}
+	// The empty pumping test made when the Test tab was first opened
+	// gives way to the first test of another kind.
+	if ts := a.cur.Tests; len(ts) == 1 && ts[0].Kind == project.PumpingTest && len(ts[0].Readings) == 0 &&
+		ts[0].Rate.Empty() && ts[0].StaticLevel.Empty() && ts[0].Logger == nil && ts[0].Result == nil {
+		a.cur.Tests = ts[:0]
+	}
 	a.cur.Tests = append(a.cur.Tests, t)
 	a.testIdx = len(a.cur.Tests) - 1
 	a.fit = fitState{}

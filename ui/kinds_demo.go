@@ -5,6 +5,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"strconv"
+	"strings"
 
 	"fieldfit/models/infiltration"
 	"fieldfit/models/units"
@@ -109,46 +110,42 @@ func DemoDecayRows() []project.KindRow {
 	return rows
 }
 
-func demoEntry(text, unit string) project.Entry {
-	e := project.Entry{Text: text, Unit: unit}
-	v, _ := parseNumber(text)
-	e.SI, e.OK = v, true
-	if u, ok := units.Lookup(unit); ok {
-		e.SI = u.ToSI(v)
+// demoSetup builds a setup from "key=number unit" values and
+// "key=choice" options, each list separated by "|".
+func demoSetup(values, options string, rows []project.KindRow) *project.KindSetup {
+	s := &project.KindSetup{Rows: rows}
+	for _, kv := range strings.Split(values, "|") {
+		k, num, _ := strings.Cut(kv, "=")
+		if k == "" {
+			continue
+		}
+		text, unit, _ := strings.Cut(num, " ")
+		u := mustUnit(unit)
+		x, _ := parseNumber(text)
+		s.SetValue(k, project.Entry{Text: text, Unit: unit, SI: u.ToSI(x), OK: true})
 	}
-	return e
+	for _, kv := range strings.Split(options, "|") {
+		k, o, _ := strings.Cut(kv, "=")
+		s.SetOption(k, o)
+	}
+	return s
 }
 
-// demoKindTests returns the example's slug test (in well wellID),
+// demoKindTests adds the example's slug test (in well wellID),
 // infiltration test and decay curve, each fitted with its first model.
 func demoKindTests(ctx context.Context, p *project.Project, wellID string) error {
-	slugT := project.Test{ID: project.NewID(), Kind: project.SlugTest, Name: "Slug test OW-1 (falling head)",
-		ObservationWell: wellID, StartText: "2026-03-18T10:15", Readings: []project.Reading{},
-		Setup: &project.KindSetup{
-			Values: map[string]project.Entry{
-				"casing-radius": demoEntry("2.5", "cm"), "well-radius": demoEntry("5", "cm"),
-				"screen-length": demoEntry("1.5", "m"), "screen-bottom": demoEntry("4.2", "m"),
-				"static": demoEntry("3.415", "m"), "slug-volume": demoEntry("1.2", "L"),
-			},
-			Options: map[string]string{"readings": "depth", "value-unit": "m", "time-unit": "s", "shape": "0"},
-			Rows:    DemoSlugRows(),
-		}}
-	infT := project.Test{ID: project.NewID(), Kind: project.InfiltrationTest, Name: "Double ring, soakaway area",
-		StartText: "2026-03-18T13:40", Readings: []project.Reading{},
-		Setup: &project.KindSetup{
-			Values: map[string]project.Entry{
-				"inner-diameter": demoEntry("30", "cm"), "outer-diameter": demoEntry("60", "cm"),
-			},
-			Options: map[string]string{"readings": "levels", "level-sense": "depth", "value-unit": "mm", "time-unit": "min"},
-			Rows:    DemoInfiltrationRows(),
-		}}
-	decT := project.Test{ID: project.NewID(), Kind: project.DecayTest, Name: "Tracer dilution, east drain",
-		StartText: "2026-03-19T08:30", Readings: []project.Reading{},
-		Setup: &project.KindSetup{
-			Options: map[string]string{"value-unit": "mg/L", "time-unit": "min"},
-			Rows:    DemoDecayRows(),
-		}}
-	for _, t := range []*project.Test{&slugT, &infT, &decT} {
+	tests := []project.Test{
+		{Kind: project.SlugTest, Name: "Slug test OW-1 (falling head)", ObservationWell: wellID, StartText: "2026-03-18T10:15",
+			Setup: demoSetup("casing-radius=2.5 cm|well-radius=5 cm|screen-length=1.5 m|screen-bottom=4.2 m|static=3.415 m|slug-volume=1.2 L",
+				"readings=depth|value-unit=m|time-unit=s|shape=0", DemoSlugRows())},
+		{Kind: project.InfiltrationTest, Name: "Double ring, soakaway area", StartText: "2026-03-18T13:40",
+			Setup: demoSetup("inner-diameter=30 cm|outer-diameter=60 cm", "readings=levels|level-sense=depth|value-unit=mm|time-unit=min", DemoInfiltrationRows())},
+		{Kind: project.DecayTest, Name: "Tracer dilution, east drain", StartText: "2026-03-19T08:30",
+			Setup: demoSetup("", "value-unit=mg/L|time-unit=min", DemoDecayRows())},
+	}
+	for i := range tests {
+		t := &tests[i]
+		t.ID, t.Readings = project.NewID(), []project.Reading{}
 		req, missing := kindRequest(p, t, nil)
 		if len(missing) > 0 {
 			panic("ui: the example " + t.Name + " is incomplete: " + missing[0])

@@ -43,13 +43,13 @@ type KindRequest struct {
 // kindRequest assembles the fit of kind test t, or says in plain
 // sentences what is missing. cond conditions the logger record when the
 // test fits it (conditionTest when nil).
-func kindRequest(p *project.Project, t *project.Test, cond conditioner) (KindRequest, []string) {
+func kindRequest(p *project.Project, t *project.Test, cond conditioner) (*KindRequest, []string) {
 	d := descFor(t.Kind)
 	s := t.Setup
 	if s == nil {
 		s = &project.KindSetup{}
 	}
-	req := KindRequest{Kind: t.Kind, Model: d.model(s), TimeUnit: d.option(s, "time-unit"),
+	req := &KindRequest{Kind: t.Kind, Model: d.model(s), TimeUnit: d.option(s, "time-unit"),
 		From: s.WindowStart, To: s.WindowEnd}
 	var missing []string
 	fm := d.fieldMessages(s)
@@ -169,7 +169,7 @@ func kindLoggerData(data *kindData, t *project.Test, cond conditioner) []string 
 	return nil
 }
 
-func (a *App) kindRequestLocked(t *project.Test) (KindRequest, []string) {
+func (a *App) kindRequestLocked(t *project.Test) (*KindRequest, []string) {
 	return kindRequest(a.cur, t, a.conditionedLocked)
 }
 
@@ -251,7 +251,7 @@ func addParams(f *project.ModelFit, ps ...project.NamedEstimate) {
 
 // KindFit fits the request's model with the kind's package and returns
 // the ModelFit (SI units) with its warnings and notes.
-func KindFit(ctx context.Context, req KindRequest) (*KindOutcome, error) {
+func KindFit(ctx context.Context, req *KindRequest) (*KindOutcome, error) {
 	if err := ctx.Err(); err != nil {
 		return nil, err
 	}

@@ -75,9 +75,13 @@ func (a *App) renderKindForm(d *kindDesc, t *project.Test) *v.Node {
 	}
 	card.Add(grid)
 	msgs := d.fieldMessages(s)
-	if m := a.kindCheck(d, t); m != "" {
-		card.Add(v.TextEl("p", v.A("id", "k-check", "class", "ff-msg", "role", "alert"), m))
+	// Always there, empty when all is well, so that a message appearing
+	// while the user types does not move the inputs.
+	chk := v.TextEl("p", v.A("id", "k-check", "class", "ff-msg", "role", "alert"), a.kindCheck(d, t))
+	if chk.Text == "" {
+		chk.Set("class", "ff-msg ff-msg-empty")
 	}
+	card.Add(chk)
 	grid = v.El("div", v.A("class", "ff-grid"))
 	for i := range d.fields {
 		f := &d.fields[i]
@@ -259,7 +263,7 @@ func (a *App) renderKindFit(d *kindDesc, t *project.Test) *v.Node {
 	}
 	div.Add(v.TextEl("p", v.A("id", "fit-status", "class", "ff-status", "role", "status", "aria-live", "polite"), status))
 	div.Add(a.renderKindResults(d, t, f))
-	div.Add(a.renderKindPlots(d, t, &req))
+	div.Add(a.renderKindPlots(d, t, req))
 	return div
 }
 
@@ -348,7 +352,7 @@ func (a *App) renderKindResults(d *kindDesc, t *project.Test, f *project.ModelFi
 				dl.Add(v.TextEl("dt", nil, label), dd)
 			}
 		}
-		dl.Add(v.TextEl("dt", nil, "RMSE"), v.TextEl("dd", v.A("id", "result-rmse"), formatSig(f.RMSE, 3)))
+		dl.Add(v.TextEl("dt", nil, "RMSE"), v.TextEl("dd", v.A("id", "result-rmse"), kindRMSE(&ReportContext{P: a.cur, T: t}, *f)))
 		dl.Add(v.TextEl("dt", nil, "Iterations"), v.TextEl("dd", v.A("id", "result-iterations"),
 			strconv.Itoa(f.Iterations)+" ("+strconv.Itoa(f.N)+" readings used)"))
 		box.Add(dl)

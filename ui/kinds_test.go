@@ -76,6 +76,33 @@ func slugInputs() slug.Test {
 		Readings: d, SlugVolume: 1.2e-3}
 }
 
+// infilInputs are the SI inputs of TestKindInfiltrationScreen: a 30 cm
+// inner ring, levels in mm, minutes.
+func infilInputs(rows []project.KindRow) infiltration.Test {
+	it := infiltration.Test{InnerDiameter: 0.3, OuterDiameter: 0.6, Unit: "mm"}
+	for _, r := range rows {
+		tv, _ := strconv.ParseFloat(r.Time, 64)
+		x, _ := strconv.ParseFloat(r.Value, 64)
+		rd := infiltration.Reading{Time: tv * 60, Value: x}
+		if r.Refill != "" {
+			rd.Refill, rd.RefillTo = true, 150
+		}
+		it.Readings = append(it.Readings, rd)
+	}
+	return it
+}
+
+// decayInputs are the readings of TestKindDecayScreen in seconds.
+func decayInputs(rows []project.KindRow) models.Data {
+	var d models.Data
+	for _, r := range rows {
+		tv, _ := strconv.ParseFloat(r.Time, 64)
+		x, _ := strconv.ParseFloat(r.Value, 64)
+		d.Time, d.Value = append(d.Time, tv*60), append(d.Value, x)
+	}
+	return d
+}
+
 func TestKindSlugScreen(t *testing.T) {
 	h := kindHarness(t, project.SlugTest)
 	h.input("k-casing-radius", "2.5") // cm, the default unit of radii
@@ -145,7 +172,7 @@ func TestKindSlugScreen(t *testing.T) {
 	h.app.DragKindWindow("start", 60, 0)
 	h.app.DragKindWindow("end", 400, 100)
 	h.settle()
-	s := h.app.Current().Tests[1].Setup
+	s := h.app.Current().Tests[0].Setup
 	if s.WindowStart != 60 || s.WindowEnd != 400 || s.WindowStartText != "60" {
 		t.Fatalf("window %v–%v %q", s.WindowStart, s.WindowEnd, s.WindowStartText)
 	}
@@ -158,14 +185,16 @@ func TestKindSlugScreen(t *testing.T) {
 	id := h.app.Current().ID
 	h.click("back-to-list")
 	p := h.stored(id)
-	st := p.Tests[1]
+	st := p.Tests[0]
+	if len(p.Tests) != 1 {
+		t.Errorf("%d tests, want the slug test alone (the empty pumping test gives way)", len(p.Tests))
+	}
 	if st.Kind != project.SlugTest || len(st.Setup.Rows) != 19 || len(st.Fits) != 3 || st.Setup.Values["casing-radius"].Unit != "cm" {
 		t.Fatalf("stored test %+v", st)
 	}
 	h2 := newHarness(t, h.st)
 	h2.app.Open(id)
 	h2.settle()
-	h2.app.SelectTest(1)
 	h2.click("tab-fit")
 	if got := h2.result("K", "m/s"); !near(got, win.K.Value, 1e-9) {
 		t.Errorf("after reload K = %g, want %g", got, win.K.Value)
@@ -237,17 +266,7 @@ func TestKindInfiltrationScreen(t *testing.T) {
 	rows := DemoInfiltrationRows()
 	h.kindRows(rows)
 	h.click("tab-fit")
-	it := infiltration.Test{InnerDiameter: 0.3, OuterDiameter: 0.6, Unit: "mm"}
-	for _, r := range rows {
-		tv, _ := strconv.ParseFloat(r.Time, 64)
-		x, _ := strconv.ParseFloat(r.Value, 64)
-		rd := infiltration.Reading{Time: tv * 60, Value: x}
-		if r.Refill != "" {
-			rd.Refill, rd.RefillTo = true, 150
-		}
-		it.Readings = append(it.Readings, rd)
-	}
-	c, err := infiltration.Rebuild(it)
+	c, err := infiltration.Rebuild(infilInputs(rows))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -288,12 +307,7 @@ func TestKindDecayScreen(t *testing.T) {
 	rows := DemoDecayRows()
 	h.kindRows(rows)
 	h.click("tab-fit")
-	var d models.Data
-	for _, r := range rows {
-		tv, _ := strconv.ParseFloat(r.Time, 64)
-		x, _ := strconv.ParseFloat(r.Value, 64)
-		d.Time, d.Value = append(d.Time, tv*60), append(d.Value, x)
-	}
+	d := decayInputs(rows)
 	want, err := decay.Fit(d, &decay.Settings{FixBaseline: true, Baseline: 3.5})
 	if err != nil {
 		t.Fatal(err)
@@ -335,5 +349,32 @@ func TestKindPaste(t *testing.T) {
 	pasteKindRows(s, 1, "value", "139\n137")
 	if s.Rows[1].Value != "139" || s.Rows[2].Value != "137" || s.Rows[2].Time != "10" {
 		t.Errorf("%+v", s.Rows)
+	}
+}
+
+// TestKindReport: the report of a kind test has the kind's sections, the
+// fitted parameters with the report's table, and the caution.
+func TestKindReport(t *testing.T) {
+	h := newHarness(t, nil)
+	h.click("demo-project")
+	for i, tt := range h.app.Current().Tests {
+		if tt.Kind == project.PumpingTest {
+			continue
+		}
+		h.app.SelectTest(i)
+		h.settle()
+		h.click("tab-report")
+		for _, id := range []string{"report-test", "report-fits", "report-plot-kind"} {
+			if h.render().ByID(id) == nil {
+				t.Errorf("%s: no #%s in the report", tt.Name, id)
+			}
+		}
+		txt := h.text("report-fits")
+		if !strings.Contains(txt, kindModelLabel(tt.Fits[0].Model)) || strings.Contains(txt, " m ") && tt.Kind == project.SlugTest {
+			t.Errorf("%s: fits table %q", tt.Name, txt)
+		}
+		if !strings.Contains(h.text("app-root"), Caution) {
+			t.Errorf("%s: no caution in the report", tt.Name)
+		}
 	}
 }

@@ -75,6 +75,9 @@ type ReportKind struct {
 	Readings func(a *App, rc *ReportContext) *CSVTable
 	// Curves returns the fitted curves as a table for the CSV export.
 	Curves func(a *App, rc *ReportContext) *CSVTable
+	// RMSE formats a fit's RMSE with the unit of the quantity fitted;
+	// nil means a length in the display unit (drawdown).
+	RMSE func(rc *ReportContext, f project.ModelFit) string
 }
 
 // reportKinds holds each kind's part of the report. Kinds add themselves
@@ -417,6 +420,9 @@ func reportFits(rc *ReportContext, fits []project.ModelFit) *v.Node {
 	for i, f := range fits {
 		name := fitModelName(f.Model)
 		model := []string{name, formatSig(rc.D.Length.FromSI(f.RMSE), 3) + " " + rc.D.Length.Symbol, strconv.Itoa(f.N), "", ""}
+		if rk := reportKinds[rc.T.Kind]; rk.RMSE != nil {
+			model[1] = rk.RMSE(rc, f)
+		}
 		if f.AICc != 0 {
 			model[3] = formatSig(f.AICc, 4)
 		}
@@ -429,8 +435,11 @@ func reportFits(rc *ReportContext, fits []project.ModelFit) *v.Node {
 			if u.Symbol == "1" {
 				sym = ""
 			}
-			rows = append(rows, []string{model[0], pe.Name, formatSig(u.FromSI(pe.Value), 3) + sym,
-				formatSig(u.FromSI(pe.Lower), 3) + " – " + formatSig(u.FromSI(pe.Upper), 3) + sym, model[1], model[2], model[3], model[4]})
+			ci := formatSig(u.FromSI(pe.Lower), 3) + " – " + formatSig(u.FromSI(pe.Upper), 3) + sym
+			if pe.NoCI {
+				ci = "none (not identifiable)"
+			}
+			rows = append(rows, []string{model[0], pe.Name, formatSig(u.FromSI(pe.Value), 3) + sym, ci, model[1], model[2], model[3], model[4]})
 			model = []string{"", "", "", "", ""}
 		}
 		if len(f.Warnings) > 0 {
@@ -498,5 +507,8 @@ func paramUnit(sym string, d Display) units.Unit {
 
 // fitModelName is the printed name of a model key of ModelFit.
 func fitModelName(m string) string {
+	if l := kindModelLabel(m); l != "" {
+		return l
+	}
 	return modelName(project.Model(m))
 }
