@@ -205,8 +205,8 @@ func (a *App) renderPlots(p *project.Project, t *project.Test, d Display) *v.Nod
 		box.Add(a.chartNode("plot-recovery-line", &ln, false, t))
 	}
 	if len(pp.wells) > 1 {
-		ch := plot.Chart{Title: "Drawdown at every well (log–log)", X: plot.Axis{Label: xlab, Log: true},
-			Y: plot.Axis{Label: ylab, Log: true}, Notes: []string{Caution}}
+		ch := plot.Chart{Title: "Drawdown and derivative at every well (log–log)", X: plot.Axis{Label: xlab, Log: true},
+			Y: plot.Axis{Label: ylab + ", derivative ds/d ln t (L = " + strconv.FormatFloat(L, 'g', 3, 64) + ")", Log: true}, Notes: []string{Caution}}
 		marks := []plot.Marker{plot.Circle, plot.Square, plot.Triangle, plot.Diamond}
 		for k, ws := range pp.wells {
 			col := []plot.Color{plot.Blue, plot.Orange, plot.Green, plot.Magenta, plot.Black}[k%5]
@@ -215,6 +215,10 @@ func (a *App) renderPlots(p *project.Project, t *project.Test, d Display) *v.Nod
 			}
 			ch.Series = append(ch.Series, plot.Series{Name: pp.names[k], Kind: plot.Points, X: ws.x, Y: ws.y, Used: ws.used,
 				Style: plot.Style{Color: col, Marker: marks[k%4]}})
+			if dv := derivative(ws.x, ws.y, L); len(dv) == len(ws.x) {
+				ch.Series = append(ch.Series, plot.Series{Name: pp.names[k] + " derivative", Kind: plot.Points, X: ws.x, Y: dv,
+					Style: plot.Style{Color: col, Marker: plot.Triangle}})
+			}
 		}
 		box.Add(a.chartNode("plot-wells", &ch, false, t))
 	}

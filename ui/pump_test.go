@@ -390,3 +390,31 @@ func stepAnalysis(tm, dd []float64) (*steptest.LossFit, error) {
 	}
 	return steptest.Jacob(an.Points(), nil)
 }
+
+// TestPumpDemo: the example's constant-rate test, still pumping, shows
+// the stop indicator; its leaky test with recovery is fitted with every
+// model in one tap, Hantush–Jacob chosen, and finds the invented values
+// (ui/pump_demo.go) within its intervals.
+func TestPumpDemo(t *testing.T) {
+	h := newHarness(t, nil)
+	h.click("demo-project")
+	if s := h.text("can-stop"); !strings.Contains(s, "Can pumping stop?") || !(strings.Contains(s, "flat since") || strings.Contains(s, "not yet")) {
+		t.Errorf("stop indicator %q", s)
+	}
+	h.input("test-select", "1")
+	tt := h.app.Current().Tests[1]
+	if len(tt.Fits) != len(pumpModels) || tt.Fit.Model != project.Hantush {
+		t.Fatalf("%d fits, model %q", len(tt.Fits), tt.Fit.Model)
+	}
+	f := currentFit(&tt)
+	for j, name := range []string{"T", "S", "B"} {
+		e, _ := f.Param(name)
+		truth := []float64{demoLeaky.T, demoLeaky.S, demoLeaky.B}[j]
+		if !(e.Lower <= truth && truth <= e.Upper) {
+			t.Errorf("%s = %v (%v – %v) misses the invented %v", name, e.Value, e.Lower, e.Upper, truth)
+		}
+	}
+	for _, id := range []string{"compare-table", "plot-recovery", "plot-wells", "distance-T", "result-B"} {
+		h.byID(id)
+	}
+}
