@@ -333,6 +333,9 @@ func fitRecoveryLine(req *FitRequest) (*FitOutcome, error) {
 	if len(req.Steps) > 2 || len(req.Steps) == 2 && req.Steps[1].Rate != 0 {
 		f.Warnings = append(f.Warnings, "The recovery line assumes one constant rate; the rate in force at the stop is used.")
 	}
+	if len(req.More) > 0 {
+		f.Warnings = append(f.Warnings, "The recovery line uses the readings of "+quoteName(req.Name)+" only; choose another well on the Test tab to read its recovery.")
+	}
 	if rl.Ratio < 0.8 || rl.Ratio > 1.25 {
 		f.Warnings = append(f.Warnings, "S′/S = "+formatSig(rl.Ratio, 2)+" is far from 1: a boundary, recharge, or an error in the rate or the static level may be the cause.")
 	}

@@ -120,6 +120,9 @@ func (a *App) stepPanel(t *project.Test, req *FitRequest, d Display) *v.Node {
 	box := v.El("div", v.A("id", "steptest", "class", "ff-card"), v.TextEl("h3", nil, "Step-drawdown test"))
 	box.Add(textField{id: "step-duration", label: "Drawdown of each step taken at", unit: "min after its start", numeric: true,
 		value: pd.StepDurationText, placeholder: "shortest step", onInput: func(s string) { a.SetPumpField("step-duration", s) }}.node())
+	if w := a.cur.Well(t.ObservationWell); w == nil || w.Kind != project.Pumping {
+		box.Add(v.TextEl("p", v.A("class", "ff-msg"), "The step-drawdown analysis reads the drawdown in the pumping well: choose it under “Readings taken in” on the Test tab."))
+	}
 	ts, ss := pumpingPart(req)
 	an, err := steptest.Analyse(steps, models.Data{Time: ts, Value: ss}, &steptest.Settings{Duration: pd.StepDuration})
 	if err != nil {
@@ -200,7 +203,15 @@ func (a *App) distancePanel(t *project.Test, req *FitRequest, d Display) *v.Node
 	}
 	var r, s []float64
 	for _, w := range wells {
-		dd, err := models.DrawdownAt(models.Data{Time: w.Time, Value: w.Drawdown}, at)
+		wd := models.Data{Time: w.Time, Value: w.Drawdown}
+		if req.Stop > 0 {
+			// Drawdown while pumping only: recovery is not on the line.
+			wd.Exclude = make([]bool, len(w.Time))
+			for i, tm := range w.Time {
+				wd.Exclude[i] = tm > req.Stop
+			}
+		}
+		dd, err := models.DrawdownAt(wd, at)
 		if err != nil {
 			return box.Add(v.TextEl("p", v.A("id", "distance-msg", "class", "ff-msg"), quoteName(w.Name)+": "+err.Error()))
 		}
