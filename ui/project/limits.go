@@ -2,6 +2,7 @@ package project
 
 import (
 	"fmt"
+	"strconv"
 	"strings"
 	"time"
 	"unicode/utf8"
@@ -25,62 +26,58 @@ const (
 // checkLimits reports the first value of p outside the limits above, or
 // a time outside the years 0–9999 (RFC 3339) in UTC.
 func (p *Project) checkLimits() error {
-	bad := func(where, format string, args ...any) error {
-		return fmt.Errorf("%w: %s: %s", ErrInvalid, where, fmt.Sprintf(format, args...))
-	}
-	id := func(where, s string) error {
-		switch {
-		case len(s) > MaxIDLen:
-			return bad(where, "the id is %d bytes long, more than %d", len(s), MaxIDLen)
-		case strings.IndexFunc(s, func(c rune) bool { return c < 0x20 || c == 0x7f }) >= 0:
-			return bad(where, "the id %q holds a control character", s)
+	var first string
+	bad := func(where, msg string) {
+		if first == "" {
+			first = where + ": " + msg
 		}
-		return nil
 	}
-	name := func(where, s string) error {
-		if n := utf8.RuneCountInString(s); n > MaxNameLen {
-			return bad(where, "the name is %d characters long, more than %d", n, MaxNameLen)
+	revs := func(where, what string, n int64) {
+		if n < 0 || n > MaxRev {
+			bad(where, what+" "+strconv.FormatInt(n, 10)+" is outside 0…"+strconv.FormatInt(MaxRev, 10))
 		}
-		return nil
 	}
-	when := func(where string, t time.Time) error {
+	when := func(where string, t time.Time) {
 		if y := t.UTC().Year(); y < 0 || y > 9999 {
-			return bad(where, "the time %s is outside the years 0–9999", t.Format(time.RFC3339))
+			bad(where, "the time "+t.Format(time.RFC3339)+" is outside the years 0–9999")
 		}
-		return nil
 	}
-	stamp := func(where string, s Stamp) error {
-		if s.Rev < 0 || s.Rev > MaxRev {
-			return bad(where, "revision %d is outside 0…%d", s.Rev, int64(MaxRev))
+	object := func(where, id, name string, s Stamp) {
+		switch {
+		case len(id) > MaxIDLen:
+			bad(where, "the id is "+strconv.Itoa(len(id))+" bytes long, more than "+strconv.Itoa(MaxIDLen))
+		case strings.IndexFunc(id, func(c rune) bool { return c < 0x20 || c == 0x7f }) >= 0:
+			bad(where, "the id "+strconv.Quote(id)+" holds a control character")
 		}
+		if n := utf8.RuneCountInString(name); n > MaxNameLen {
+			bad(where, "the name is "+strconv.Itoa(n)+" characters long, more than "+strconv.Itoa(MaxNameLen))
+		}
+		revs(where, "revision", s.Rev)
 		for k, n := range s.By {
-			if n < 0 || n > MaxRev || k == "" || len(k) > MaxIDLen {
-				return bad(where, "the change count %q: %d is not valid", k, n)
+			if k == "" || len(k) > MaxIDLen {
+				bad(where, "the change count "+strconv.Quote(k)+" has no valid session name")
 			}
+			revs(where, "the change count", n)
 		}
-		return when(where, s.Changed)
+		when(where, s.Changed)
 	}
-	errs := []error{id("project", p.ID), name("project", p.Name), when("project", p.Changed), stamp("project details", p.Details)}
-	if p.Rev < 0 || p.Rev > MaxRev {
-		errs = append(errs, bad("project", "revision %d is outside 0…%d", p.Rev, int64(MaxRev)))
-	}
+	object("project", p.ID, p.Name, p.Details)
+	revs("project", "revision", p.Rev)
+	when("project", p.Changed)
 	for i := range p.Wells {
 		w := &p.Wells[i]
-		where := fmt.Sprintf("well %d (%q)", i+1, w.Name)
-		errs = append(errs, id(where, w.ID), name(where, w.Name), stamp(where, w.Stamp))
+		object("well "+strconv.Itoa(i+1)+" ("+strconv.Quote(w.Name)+")", w.ID, w.Name, w.Stamp)
 	}
 	for i := range p.Tests {
 		t := &p.Tests[i]
-		where := fmt.Sprintf("test %d (%q)", i+1, t.Name)
-		errs = append(errs, id(where, t.ID), name(where, t.Name), stamp(where, t.Stamp))
+		where := "test " + strconv.Itoa(i+1) + " (" + strconv.Quote(t.Name) + ")"
+		object(where, t.ID, t.Name, t.Stamp)
 		if !t.Kind.Valid() {
-			errs = append(errs, bad(where, "the kind %q is not known", t.Kind))
+			bad(where, "the kind "+strconv.Quote(string(t.Kind))+" is not known")
 		}
 	}
-	for _, err := range errs {
-		if err != nil {
-			return err
-		}
+	if first != "" {
+		return fmt.Errorf("%w: %s", ErrInvalid, first)
 	}
 	return nil
 }

@@ -144,6 +144,20 @@ func (m *Merge) Unchanged() bool {
 	return true
 }
 
+// decide says how Apply treats part p with the user's choice c: whether
+// the incoming copy is taken, whether the stamp is a decision's (a later
+// state of both copies), and whether an incoming copy is added beside the
+// device's.
+func decide(p Part, c Choice) (fromInc, decided, both bool) {
+	switch p.State {
+	case TakeIncoming, OnlyIncoming:
+		return true, false, false
+	case Conflict:
+		return c == ChooseIncoming, true, c == ChooseBoth
+	}
+	return false, false, false
+}
+
 // FromFileSuffix marks the name of an incoming copy kept beside the
 // device's (ChooseBoth).
 const FromFileSuffix = " (incoming copy)"
@@ -185,39 +199,36 @@ func (m *Merge) Apply(choices map[string]Choice, by string, now time.Time) (*Pro
 		res.Details = join(m.Local.Details, m.Incoming.Details)
 	}
 	wellCopy := map[string]string{}
-	var wells []Well
-	var addWells []Well
+	var wells, addWells []Well
 	for _, p := range m.Parts {
 		if p.What != "well" {
 			continue
 		}
+		fromInc, dec, both := decide(p, choices[p.Key])
 		var w Well
-		switch {
-		case p.State == OnlyIncoming:
-			addWells = append(addWells, *inc.Well(p.Key))
-			continue
-		case p.State == TakeIncoming:
+		if fromInc {
 			w = *inc.Well(p.Key)
-		case p.State == Conflict && choices[p.Key] == ChooseIncoming:
-			w = *inc.Well(p.Key)
-			w.Stamp = decided(p.Local.(*Well).Stamp, p.Incoming.(*Well).Stamp)
-		case p.State == Conflict:
-			w = *res.Well(p.Key)
-			w.Stamp = decided(p.Local.(*Well).Stamp, p.Incoming.(*Well).Stamp)
-			if choices[p.Key] == ChooseBoth {
-				c := *inc.Well(p.Key)
-				c.ID = NewID()
-				c.Name += FromFileSuffix
-				wellCopy[p.Key] = c.ID
-				addWells = append(addWells, c)
-			}
-		case p.State == Equal:
-			w = *res.Well(p.Key)
-			w.Stamp = join(w.Stamp, p.Incoming.(*Well).Stamp)
-		default:
+		} else {
 			w = *res.Well(p.Key)
 		}
+		switch {
+		case dec:
+			w.Stamp = decided(p.Local.(*Well).Stamp, p.Incoming.(*Well).Stamp)
+		case p.State == Equal:
+			w.Stamp = join(w.Stamp, p.Incoming.(*Well).Stamp)
+		}
+		if p.State == OnlyIncoming {
+			addWells = append(addWells, w)
+			continue
+		}
 		wells = append(wells, w)
+		if both {
+			c := *inc.Well(p.Key)
+			c.ID = NewID()
+			c.Name += FromFileSuffix
+			wellCopy[p.Key] = c.ID
+			addWells = append(addWells, c)
+		}
 	}
 	res.Wells = append(wells, addWells...)
 	// remap points a test taken from the incoming copy at the incoming
@@ -240,37 +251,34 @@ func (m *Merge) Apply(choices map[string]Choice, by string, now time.Time) (*Pro
 		if p.What != "test" {
 			continue
 		}
+		fromInc, dec, both := decide(p, choices[p.Key])
 		var t Test
-		switch {
-		case p.State == OnlyIncoming:
+		if fromInc {
 			t = *inc.Test(p.Key)
-			remap(&t)
-			addTests = append(addTests, t)
-			continue
-		case p.State == TakeIncoming:
-			t = *inc.Test(p.Key)
-			remap(&t)
-		case p.State == Conflict && choices[p.Key] == ChooseIncoming:
-			t = *inc.Test(p.Key)
-			remap(&t)
-			t.Stamp = decided(p.Local.(*Test).Stamp, p.Incoming.(*Test).Stamp)
-		case p.State == Conflict:
-			t = *res.Test(p.Key)
-			t.Stamp = decided(p.Local.(*Test).Stamp, p.Incoming.(*Test).Stamp)
-			if choices[p.Key] == ChooseBoth {
-				c := *inc.Test(p.Key)
-				c.ID = NewID()
-				c.Name += FromFileSuffix
-				remap(&c)
-				addTests = append(addTests, c)
-			}
-		case p.State == Equal:
-			t = *res.Test(p.Key)
-			t.Stamp = join(t.Stamp, p.Incoming.(*Test).Stamp)
-		default:
+		} else {
 			t = *res.Test(p.Key)
 		}
+		switch {
+		case dec:
+			t.Stamp = decided(p.Local.(*Test).Stamp, p.Incoming.(*Test).Stamp)
+		case p.State == Equal:
+			t.Stamp = join(t.Stamp, p.Incoming.(*Test).Stamp)
+		}
+		if fromInc {
+			remap(&t)
+		}
+		if p.State == OnlyIncoming {
+			addTests = append(addTests, t)
+			continue
+		}
 		tests = append(tests, t)
+		if both {
+			c := *inc.Test(p.Key)
+			c.ID = NewID()
+			c.Name += FromFileSuffix
+			remap(&c)
+			addTests = append(addTests, c)
+		}
 	}
 	res.Tests = append(tests, addTests...)
 	if res.Wells == nil {

@@ -104,6 +104,12 @@ func TestUnmarshalFile(t *testing.T) {
 		{"list in v2", `{"format":"fieldfit-project","version":2,"projects":[{"id":"b"}]}`, ErrInvalid, "version 3"},
 		{"bad second", `{"format":"fieldfit-project","version":3,"projects":[{"id":"a"},{"id":"b","units":"cubits"}]}`, ErrInvalid, "projects[1]"},
 		{"newer", `{"format":"fieldfit-project","version":4,"projects":[{"id":"b"}]}`, ErrNewerVersion, "reads up to version 3"},
+		{"long name", `{"format":"fieldfit-project","version":3,"project":{"id":"a","name":"` + strings.Repeat("x", MaxNameLen+1) + `"}}`, ErrInvalid, "characters long"},
+		{"control in id", `{"format":"fieldfit-project","version":3,"project":{"id":"a\u0007"}}`, ErrInvalid, "control character"},
+		{"negative stamp", `{"format":"fieldfit-project","version":3,"project":{"id":"a","wells":[{"id":"w","kind":"pumping","stamp":{"rev":-1,"changed":"2026-01-01T00:00:00Z"}}]}}`, ErrInvalid, "well 1"},
+		{"count too large", `{"format":"fieldfit-project","version":3,"project":{"id":"a","details":{"rev":1,"changed":"2026-01-01T00:00:00Z","by":{"s1":9007199254740992}}}}`, ErrInvalid, "change count"},
+		{"year past 9999 in UTC", `{"format":"fieldfit-project","version":3,"project":{"id":"a","changed":"9999-12-31T23:59:59-23:00"}}`, ErrInvalid, "years 0–9999"},
+		{"unknown kind", `{"format":"fieldfit-project","version":3,"project":{"id":"a","tests":[{"id":"t","kind":"dowsing"}]}}`, ErrInvalid, "dowsing"},
 	} {
 		t.Run(tt.name, func(t *testing.T) {
 			_, err := UnmarshalFile([]byte(tt.data))
