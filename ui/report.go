@@ -47,7 +47,7 @@ import (
 // Every function is optional and is called from Render with the App's
 // lock held: it must return quickly, must not lock a.mu, and may use the
 // a.…Locked helpers (a.fitRequestLocked, a.conditionedLocked) and the
-// builders below (reportSection, reportPairs, reportTable). Plots are
+// builders reportSection, reportPairs and reportTable. Plots are
 // <svg class="ff-plot" id="…"> elements inside a <figure> (chartNode
 // makes them); the report adds the SVG and PNG export buttons to each one
 // by itself. User text goes into Text and attribute values only.
@@ -68,6 +68,9 @@ type ReportKind struct {
 	Plots func(a *App, rc *ReportContext) []*v.Node
 	// Fits returns the fits to tabulate; nil means Test.Fits.
 	Fits func(a *App, rc *ReportContext) []project.ModelFit
+	// Group names the readings a fit was made of: ΔAICc compares only
+	// fits of the same group. nil groups fits by their number of readings.
+	Group func(f *project.ModelFit) string
 	// After returns sections shown after the fitted parameters.
 	After func(a *App, rc *ReportContext) []*v.Node
 	// Readings returns the readings as a table for the CSV export; nil
@@ -195,7 +198,7 @@ func (a *App) renderReport() *v.Node {
 		if rk.Fits != nil {
 			fs = rk.Fits(a, rc)
 		}
-		return []*v.Node{reportFits(rc, fs)}
+		return []*v.Node{reportFits(rc, fs, rk.Group)}
 	}
 	for i, f := range []func(*App, *ReportContext) []*v.Node{rk.Test, reportData, rk.Plots, fits, rk.After} {
 		if f == nil {
@@ -409,12 +412,12 @@ func conditioningText(lg *project.LoggerData) string {
 // with its 95 % interval in display units, and per model its RMSE, AICc
 // and, with several fits of the same readings, ΔAICc; then each fit's
 // validity notes.
-func reportFits(rc *ReportContext, fits []project.ModelFit) *v.Node {
+func reportFits(rc *ReportContext, fits []project.ModelFit, group func(*project.ModelFit) string) *v.Node {
 	sec := reportSection("report-fits", "Fitted parameters")
 	if len(fits) == 0 {
 		return sec.Add(v.TextEl("p", nil, "No fit yet."))
 	}
-	delta := deltaAICc(fits)
+	delta := deltaAICc(fits, group)
 	var rows [][]string
 	var notes []*v.Node
 	for i, f := range fits {
@@ -457,29 +460,38 @@ func reportFits(rc *ReportContext, fits []project.ModelFit) *v.Node {
 	return sec.Add(notes...)
 }
 
-// deltaAICc returns AICc − min AICc for each fit, among the fits with an
-// AICc and the same number of readings as the fit with the lowest; NaN
-// for the others. It returns nil unless at least two fits compare.
-func deltaAICc(fits []project.ModelFit) []float64 {
-	best := -1
-	for i, f := range fits {
-		if f.AICc != 0 && (best < 0 || f.AICc < fits[best].AICc) {
-			best = i
+// deltaAICc returns AICc − the lowest AICc of the fits of the same group
+// (group(f), or the number of readings when group is nil) for each fit
+// with an AICc, NaN for the others. It returns nil unless at least two
+// fits of one group compare.
+func deltaAICc(fits []project.ModelFit, group func(*project.ModelFit) string) []float64 {
+	key := func(i int) string {
+		if group != nil {
+			return group(&fits[i])
 		}
+		return strconv.Itoa(fits[i].N)
 	}
-	if best < 0 {
-		return nil
+	best := map[string]float64{}
+	count := map[string]int{}
+	for i, f := range fits {
+		if f.AICc != 0 && !math.IsNaN(f.AICc) {
+			k := key(i)
+			if b, ok := best[k]; !ok || f.AICc < b {
+				best[k] = f.AICc
+			}
+			count[k]++
+		}
 	}
 	out := make([]float64, len(fits))
-	n := 0
+	compare := false
 	for i, f := range fits {
 		out[i] = math.NaN()
-		if f.AICc != 0 && f.N == fits[best].N {
-			out[i] = f.AICc - fits[best].AICc
-			n++
+		if k := key(i); count[k] > 1 && f.AICc != 0 {
+			out[i] = f.AICc - best[k]
+			compare = true
 		}
 	}
-	if n < 2 {
+	if !compare {
 		return nil
 	}
 	return out

@@ -21,6 +21,7 @@ func init() {
 		Data:     pumpReportData,
 		Plots:    pumpReportPlots,
 		Fits:     pumpReportFits,
+		Group:    func(f *project.ModelFit) string { return fitGroup(f.Inputs) },
 		After:    pumpReportAfter,
 		Readings: pumpReadingsCSV,
 		Curves:   pumpCurvesCSV,

@@ -408,18 +408,25 @@ func TestCSVFields(t *testing.T) {
 
 func TestDeltaAICc(t *testing.T) {
 	fits := []project.ModelFit{{AICc: -40, N: 25}, {AICc: -37.5, N: 25}, {N: 25}, {AICc: -60, N: 12}}
-	// The lowest AICc is the fit of 12 readings: only it has that N, so
-	// nothing compares.
-	if d := deltaAICc(fits); d != nil {
-		t.Errorf("ΔAICc %v across different readings", d)
-	}
-	fits[3].N = 25
-	d := deltaAICc(fits)
-	want := []float64{20, 22.5, math.NaN(), 0}
+	// By the number of readings: the fit of 12 readings has no peer.
+	d := deltaAICc(fits, nil)
+	want := []float64{0, 2.5, math.NaN(), math.NaN()}
 	for i := range want {
 		if !(d[i] == want[i] || math.IsNaN(d[i]) && math.IsNaN(want[i])) {
-			t.Errorf("ΔAICc %v, want %v", d, want)
+			t.Errorf("by N: ΔAICc %v, want %v", d, want)
 		}
+	}
+	// By a group the kind names: the first and the last compare.
+	fits[3].Inputs, fits[0].Inputs = "a", "a"
+	d = deltaAICc(fits, func(f *project.ModelFit) string { return f.Inputs })
+	want = []float64{20, math.NaN(), math.NaN(), 0}
+	for i := range want {
+		if !(d[i] == want[i] || math.IsNaN(d[i]) && math.IsNaN(want[i])) {
+			t.Errorf("by group: ΔAICc %v, want %v", d, want)
+		}
+	}
+	if d := deltaAICc(fits[2:], nil); d != nil {
+		t.Errorf("ΔAICc %v with nothing to compare", d)
 	}
 }
 
