@@ -378,3 +378,29 @@ func TestKindReport(t *testing.T) {
 		}
 	}
 }
+
+// TestKindFromLogger: a kind test takes its readings from the logger
+// import of the Logger data tab (the change of level from the static
+// level against time), the same record a pumping test would fit.
+func TestKindFromLogger(t *testing.T) {
+	h := kindHarness(t, project.DecayTest)
+	h.click("tab-logger")
+	h.importFixture("logger-file", "elapsed-seconds.csv")
+	h.click("tab-fit")
+	h.input("fit-source", "logger")
+	tt := h.app.Current().Tests[0]
+	req, missing := kindRequest(h.app.Current(), &tt, nil)
+	if len(missing) > 0 || !req.Data.FromLogger || len(req.Data.T) != 34 || req.ValueUnit != "m" {
+		t.Fatalf("logger request: %d readings, from logger %v, unit %q, missing %q", len(req.Data.T), req.Data.FromLogger, req.ValueUnit, missing)
+	}
+	if got := h.byID("fit-source").Attrs["value"]; got != "logger" {
+		t.Errorf("fit tab source %q", got)
+	}
+	if got := h.text("fit-status"); strings.Contains(got, "readings are needed") {
+		t.Errorf("status %q", got)
+	}
+	h.click("tab-readings")
+	if !strings.Contains(h.text("app-root"), "uses the logger record") {
+		t.Error("the readings tab does not say the fit uses the logger record")
+	}
+}
