@@ -143,11 +143,11 @@ func (a *App) stepPanel(t *project.Test, req *FitRequest, d Display) *v.Node {
 	dl := v.El("dl", v.A("class", "ff-dl"))
 	item := func(id, label, text string) { dl.Add(v.TextEl("dt", nil, label), v.TextEl("dd", v.A("id", id), text)) }
 	for _, c := range law.Coefficients {
-		item("step-"+c.Name, c.Long+" "+c.Name, formatSig(c.Value, 3)+" "+c.Unit+" (95 % CI "+formatSig(c.Lower, 3)+" – "+formatSig(c.Upper, 3)+")")
+		item("step-"+c.Name, c.Long+" "+c.Name, ciText(c.Value, c.Lower, c.Upper, " "+c.Unit))
 	}
 	effAt := func(q float64) string {
 		e, lo, hi := law.Efficiency(q)
-		return formatSig(100*e, 3) + " % (95 % CI " + formatSig(100*lo, 3) + " – " + formatSig(100*hi, 3) + " %)"
+		return ciText(100*e, 100*lo, 100*hi, " %")
 	}
 	for _, s := range an.Steps {
 		item("step-eff-"+strconv.Itoa(s.Index), "Efficiency BQ/s_w at step "+strconv.Itoa(s.Index+1), effAt(s.Rate))
@@ -166,7 +166,7 @@ func (a *App) stepPanel(t *project.Test, req *FitRequest, d Display) *v.Node {
 		if rb, err := steptest.Rorabaugh(pts, nil); err != nil {
 			item("step-n", "Rorabaugh n", err.Error())
 		} else if c, ok := rb.Coefficient("n"); ok {
-			item("step-n", "Rorabaugh n", formatSig(c.Value, 3)+" (95 % CI "+formatSig(c.Lower, 3)+" – "+formatSig(c.Upper, 3)+")")
+			item("step-n", "Rorabaugh n", ciText(c.Value, c.Lower, c.Upper, ""))
 		}
 	}
 	box.Add(dl)

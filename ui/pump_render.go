@@ -106,42 +106,37 @@ func (a *App) pumpControls(t *project.Test, d Display) *v.Node {
 		box.Add(textField{id: "boundary-distance", label: "Distance from the pumping well to the boundary", unit: d.Length.Symbol, numeric: true,
 			value: pd.BoundaryText, placeholder: "fitted", msg: msg, onInput: func(s string) { a.SetPumpField("boundary", s) }}.node())
 	}
-	// Weights (several wells) and bearings (a boundary) per well.
-	var wells []struct {
-		key, name string
-		s         project.WellSetting
-	}
+	// Weights (several wells) and bearings (a boundary) per well: the
+	// test's own well ("main") and the others with readings (by index).
 	mainName := "first well"
 	if w := a.cur.Well(t.ObservationWell); w != nil {
 		mainName = w.Name
 	}
-	wells = append(wells, struct {
-		key, name string
-		s         project.WellSetting
-	}{"main", mainName, pd.Main})
+	keys, names, sets := []string{"main"}, []string{mainName}, []project.WellSetting{pd.Main}
 	for k, wr := range pd.Wells {
 		if w := a.cur.Well(wr.WellID); w != nil && len(wr.Readings) > 0 {
-			wells = append(wells, struct {
-				key, name string
-				s         project.WellSetting
-			}{strconv.Itoa(k), w.Name, wr.Setting})
+			keys, names, sets = append(keys, strconv.Itoa(k)), append(names, w.Name), append(sets, wr.Setting)
 		}
 	}
-	if len(wells) > 1 || boundary {
+	if len(keys) > 1 || boundary {
 		grid := v.El("div", v.A("class", "ff-grid"))
-		for _, w := range wells {
-			key := w.key
-			if len(wells) > 1 {
-				grid.Add(textField{id: "weight-" + key, label: "Weight of " + w.name, numeric: true, value: w.s.WeightText, placeholder: "1",
-					onInput: func(s string) { a.SetPumpField(key+":weight", s) }}.node())
+		for i, key := range keys {
+			key, ws := key, sets[i]
+			if len(keys) > 1 {
+				msg := ""
+				if w, err := parseNumber(ws.WeightText); ws.WeightText != "" && (err != nil || w <= 0) {
+					msg = "“" + ws.WeightText + "” is not a weight greater than zero; 1 is used."
+				}
+				grid.Add(textField{id: "weight-" + key, label: "Weight of " + names[i], numeric: true, value: ws.WeightText, placeholder: "1",
+					msg: msg, onInput: func(s string) { a.SetPumpField(key+":weight", s) }}.node())
 			}
 			if boundary {
 				msg := ""
-				if w.s.BearingText != "" && !w.s.BearingOK {
-					msg = "“" + w.s.BearingText + "” is not a number of degrees; 90° is used."
+				if ws.BearingText != "" && !ws.BearingOK {
+					msg = "“" + ws.BearingText + "” is not a number of degrees; 90° is used."
 				}
-				grid.Add(textField{id: "bearing-" + key, label: "Angle of " + w.name + " from the direction of the boundary", unit: "°", numeric: true,
-					value: w.s.BearingText, placeholder: "90", msg: msg, onInput: func(s string) { a.SetPumpField(key+":bearing", s) }}.node())
+				grid.Add(textField{id: "bearing-" + key, label: "Angle of " + names[i] + " from the direction of the boundary", unit: "°", numeric: true,
+					value: ws.BearingText, placeholder: "90", msg: msg, onInput: func(s string) { a.SetPumpField(key+":bearing", s) }}.node())
 			}
 		}
 		box.Add(grid)
@@ -182,14 +177,19 @@ func estimateText(e project.NamedEstimate, d Display) (float64, string) {
 		u = mustUnit("d")
 	}
 	val := u.FromSI(e.Value)
-	s := formatSig(val, 3)
+	sym := ""
 	if u.Symbol != "1" {
-		s += " " + u.Symbol
+		sym = " " + u.Symbol
 	}
-	if e.Lower != e.Value || e.Upper != e.Value {
-		s += " (95 % CI " + formatSig(u.FromSI(e.Lower), 3) + " – " + formatSig(u.FromSI(e.Upper), 3) + ")"
+	if e.Lower == e.Value && e.Upper == e.Value {
+		return val, formatSig(val, 3) + sym
 	}
-	return val, s
+	return val, ciText(val, u.FromSI(e.Lower), u.FromSI(e.Upper), sym)
+}
+
+// ciText is a value with its unit and 95 % interval, 3 digits.
+func ciText(v, lo, hi float64, unit string) string {
+	return formatSig(v, 3) + unit + " (95 % CI " + formatSig(lo, 3) + " – " + formatSig(hi, 3) + ")"
 }
 
 // paramLabels name the parameters of the models beyond T, S and K.

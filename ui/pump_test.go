@@ -224,6 +224,14 @@ func TestPumpBadInputs(t *testing.T) {
 	h.click("step-1-remove")
 	h.click("step-0-remove")
 
+	// A weight that is not a number is kept, with a message.
+	h.click("tab-fit")
+	h.input("weight-0", "heavy")
+	if s := h.text("weight-0-msg"); !strings.Contains(s, "not a weight") {
+		t.Errorf("bad weight: %q", s)
+	}
+	h.input("weight-0", "")
+
 	// A given boundary distance not beyond the observation well.
 	h.click("tab-fit")
 	h.input("fit-model", string(project.TheisNoFlow))
