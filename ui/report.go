@@ -455,6 +455,7 @@ func reportFits(rc *ReportContext, fits []project.ModelFit, group func(*project.
 	}
 	sec.Add(reportTable("report-fits-table", []string{"Model", "Parameter", "Value", "95 % interval", "RMSE", "Readings", "AICc", "ΔAICc"}, rows))
 	if delta != nil {
+		// "Under about 2": Burnham & Anderson (2002), from memory.
 		sec.Add(v.TextEl("p", v.A("class", "ff-rsmall"), "ΔAICc is each model's small-sample Akaike criterion less the lowest among the fits of the same readings: lower is better supported; differences under about 2 do not tell the models apart. The choice of model stays with the hydrogeologist."))
 	}
 	return sec.Add(notes...)

@@ -174,7 +174,7 @@ func TestBrowserReport(t *testing.T) {
 	if n := strings.Count(flat, "Preliminary field interpretation only."); n < 2 {
 		t.Errorf("the caution is printed %d times, want at least 2", n)
 	}
-	// A4 is 210 × 297 mm = 595.28 × 841.89 pt (ISO 216; 1 pt = 1/72 in);
+	// A4 is 210 × 297 mm = 595.28 × 841.89 pt (ISO 216, from memory; 1 pt = 1/72 in);
 	// Chromium rounds the page to whole CSS pixels, within 1 pt.
 	if !pageIs(size, 595.28, 841.89) {
 		t.Errorf("A4 page size %s pt, want 595.28 x 841.89", size)
@@ -183,7 +183,7 @@ func TestBrowserReport(t *testing.T) {
 	u.choose("report-paper", PaperLetter)
 	u.waitFor("Letter chosen", `document.getElementById("report").dataset.paper === "letter"`)
 	text, size = printPDF("letter")
-	// US Letter is 8.5 × 11 in = 612 × 792 pt (ANSI/ASME Y14.1).
+	// US Letter is 8.5 × 11 in = 612 × 792 pt (ANSI/ASME Y14.1, from memory).
 	if !pageIs(size, 612, 792) {
 		t.Errorf("Letter page size %s pt, want 612 x 792", size)
 	}
