@@ -89,6 +89,17 @@ func withMarks(r, prev store.Record) store.Record {
 // object was changed on both sides nothing is written and the decisions
 // screen is shown. The caller holds saveMu.
 func (a *App) saveChecked(ctx context.Context, p *project.Project) error {
+	for try := 0; ; try++ {
+		err := a.saveOnce(ctx, p)
+		if !errors.Is(err, store.ErrConflict) || try == 3 {
+			return err
+		}
+	}
+}
+
+// saveOnce is one attempt of saveChecked; it fails with store.ErrConflict
+// when another tab wrote between its read and its write.
+func (a *App) saveOnce(ctx context.Context, p *project.Project) error {
 	a.mu.Lock()
 	expect := a.files.rec
 	a.mu.Unlock()
@@ -99,6 +110,7 @@ func (a *App) saveChecked(ctx context.Context, p *project.Project) error {
 	case err != nil:
 		return err
 	}
+	read := stored.Rev
 	if stored.Rev != expect.Rev && stored.Data != nil {
 		other, err := project.Unmarshal(stored.Data)
 		if err != nil {
@@ -139,7 +151,12 @@ func (a *App) saveChecked(ctx context.Context, p *project.Project) error {
 		return err
 	}
 	r := withMarks(store.Record{ID: p.ID, Name: p.Name, Rev: p.Rev, Changed: p.Changed, Data: data}, expect)
-	if err := a.opt.Store.Put(ctx, r); err != nil {
+	if c, ok := a.opt.Store.(store.Conditional); ok {
+		err = c.PutIfRev(ctx, r, read)
+	} else {
+		err = a.opt.Store.Put(ctx, r)
+	}
+	if err != nil {
 		return err
 	}
 	r.Data = nil

@@ -12,6 +12,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/chromedp/chromedp"
 
@@ -90,18 +91,30 @@ func TestBrowserTwoTabs(t *testing.T) {
 	a.click("tab-readings")
 	a.waitFor("tab 1 to have tab 2's reading", `document.getElementById("r-0-depth").value === "7.333"`)
 
-	// The same reading in both tabs: the later save asks.
-	a.set("r-0-depth", "7.401")
-	a.run(chromedp.Sleep(100e6))
+	// The same reading in both tabs, typed before either saves: the
+	// later save asks.
 	b.click("tab-readings")
-	b.set("r-0-depth", "7.402")
-	b.waitFor("the decisions screen in a tab", `!!document.getElementById("screen-merge") || `+
-		`(document.getElementById("r-0-depth") && document.getElementById("r-0-depth").value === "7.401")`)
-	// Tab 1's 7.401 was saved first unless tab 2 saved before it was
-	// told; either way, one tab asks and nothing is lost silently.
-	asker, other, mine := b, a, "7.402"
-	if u := a.eval(`String(!!document.getElementById("screen-merge"))`); u == "true" {
-		asker, other, mine = a, b, "7.401"
+	b.waitFor("the readings in tab 2", `!!document.getElementById("r-0-depth")`)
+	typeNow := func(u user, v string) {
+		u.run(chromedp.Evaluate[chromedp.Void](`(() => { const e = document.getElementById("r-0-depth");
+			e.value = "` + v + `"; e.dispatchEvent(new Event("input", {bubbles: true})); })()`))
+	}
+	typeNow(a, "7.401")
+	typeNow(b, "7.402")
+	var asker, other user
+	var mine string
+	hasMerge := func(u user) bool { return u.eval(`String(!!document.getElementById("screen-merge"))`) == "true" }
+	for deadline := time.Now().Add(30 * time.Second); asker.p == nil; {
+		switch {
+		case hasMerge(b):
+			asker, other, mine = b, a, "7.402"
+		case hasMerge(a):
+			asker, other, mine = a, b, "7.401"
+		case time.Now().After(deadline):
+			t.Fatalf("no tab asks after both changed the same reading; tab 1 shows %q, tab 2 %q", a.value("r-0-depth"), b.value("r-0-depth"))
+		default:
+			time.Sleep(100 * time.Millisecond)
+		}
 	}
 	asker.waitFor("the decisions screen", `!!document.getElementById("screen-merge")`)
 	screen := asker.text("screen-merge")

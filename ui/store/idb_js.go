@@ -353,6 +353,47 @@ func (s *indexedDB) Put(ctx context.Context, r Record) (err error) {
 	return s.finish(ctx, txn, "put", r.ID)
 }
 
+// PutIfRev reads the stored revision and writes r in one readwrite
+// transaction: IndexedDB runs such transactions on one object store one
+// after the other, also across tabs, so nothing can come between.
+func (s *indexedDB) PutIfRev(ctx context.Context, r Record, rev int64) (err error) {
+	if err := r.Validate(); err != nil {
+		return err
+	}
+	defer recoverJS(&err, "put", r.ID)
+	txn, st, err := s.begin(ctx, "put", r.ID, idb.TransactionReadWrite)
+	if err != nil {
+		return err
+	}
+	req, err := st.Get(js.ValueOf(r.ID))
+	if err != nil {
+		_ = txn.Abort()
+		return domError("put", r.ID, err)
+	}
+	v, err := req.Await(ctx)
+	if err != nil {
+		_ = txn.Abort()
+		return domError("put", r.ID, err)
+	}
+	var have int64
+	if !v.IsUndefined() {
+		if v.Type() != js.TypeObject || v.Get("rev").Type() != js.TypeNumber {
+			_ = txn.Abort()
+			return &Error{Op: "put", ID: r.ID, Field: "Rev", Err: errors.New("the stored record has no revision")}
+		}
+		have = int64(v.Get("rev").Float())
+	}
+	if have != rev {
+		_ = txn.Abort()
+		return &Error{Op: "put", ID: r.ID, Err: fmt.Errorf("%w (stored revision %d, read %d)", ErrConflict, have, rev)}
+	}
+	if _, err := st.Put(encodeRecord(r)); err != nil {
+		_ = txn.Abort()
+		return domError("put", r.ID, err)
+	}
+	return s.finish(ctx, txn, "put", r.ID)
+}
+
 func (s *indexedDB) Delete(ctx context.Context, id string) (err error) {
 	defer recoverJS(&err, "delete", id)
 	txn, st, err := s.begin(ctx, "delete", id, idb.TransactionReadWrite)

@@ -2,6 +2,7 @@ package store
 
 import (
 	"context"
+	"fmt"
 	"sync"
 )
 
@@ -64,6 +65,22 @@ func (m *memory) Put(ctx context.Context, r Record) error {
 	defer m.mu.Unlock()
 	if err := m.check(ctx, "put", r.ID); err != nil {
 		return err
+	}
+	m.recs[r.ID] = clone(r)
+	return nil
+}
+
+func (m *memory) PutIfRev(ctx context.Context, r Record, rev int64) error {
+	if err := r.Validate(); err != nil {
+		return err
+	}
+	m.mu.Lock()
+	defer m.mu.Unlock()
+	if err := m.check(ctx, "put", r.ID); err != nil {
+		return err
+	}
+	if cur := m.recs[r.ID]; cur.Rev != rev {
+		return &Error{Op: "put", ID: r.ID, Err: fmt.Errorf("%w (stored revision %d, read %d)", ErrConflict, cur.Rev, rev)}
 	}
 	m.recs[r.ID] = clone(r)
 	return nil

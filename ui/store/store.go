@@ -52,8 +52,21 @@ type Store interface {
 	Close() error
 }
 
+// Conditional is implemented by stores that replace a record only when
+// the stored revision is the one the caller read, in one transaction, so
+// that two tabs saving at once cannot overwrite each other unseen. Both
+// stores of this package implement it.
+type Conditional interface {
+	// PutIfRev is Put when the stored record with r.ID has Rev rev (0:
+	// none is stored); otherwise it stores nothing and fails with an
+	// error wrapping ErrConflict.
+	PutIfRev(ctx context.Context, r Record, rev int64) error
+}
+
 // Sentinel errors. An *Error wraps at most one of them; test with errors.Is.
 var (
+	// ErrConflict: another tab or window saved the record meanwhile.
+	ErrConflict = errors.New("the project was saved meanwhile in another tab or window")
 	// ErrNotFound: no record has the requested ID.
 	ErrNotFound = errors.New("no such project in the store")
 	// ErrInvalid: the record cannot be stored as it is (see Record.Validate).

@@ -191,3 +191,23 @@ func FuzzSortOrder(f *testing.F) {
 		}
 	})
 }
+
+func TestMemoryPutIfRev(t *testing.T) {
+	ctx := context.Background()
+	s := store.NewMemory()
+	c := s.(store.Conditional)
+	r := store.Record{ID: "p1", Name: "Ruff Point", Rev: 1, Data: []byte("a")}
+	if err := c.PutIfRev(ctx, r, 0); err != nil {
+		t.Fatal(err)
+	}
+	r.Rev, r.Data = 2, []byte("b")
+	if err := c.PutIfRev(ctx, r, 0); !errors.Is(err, store.ErrConflict) {
+		t.Errorf("stale write: err = %v, want store.ErrConflict", err)
+	}
+	if got, _ := s.Get(ctx, "p1"); string(got.Data) != "a" {
+		t.Errorf("a refused write changed the record to %q", got.Data)
+	}
+	if err := c.PutIfRev(ctx, r, 1); err != nil {
+		t.Errorf("write on the revision read: %v", err)
+	}
+}
