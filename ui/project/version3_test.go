@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"os"
 	"reflect"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -184,5 +185,18 @@ func TestTouch(t *testing.T) {
 	Touch(p, fp, "s2", now)
 	if p.Details.Rev != 2 || p.Tests[0].Stamp.Rev != 2 {
 		t.Errorf("details %+v test %+v", p.Details, p.Tests[0].Stamp)
+	}
+}
+
+// BenchmarkTouchLogger1M stamps a project holding a logger record of a
+// million readings after a change of one tape reading: the work each
+// autosave adds to writing the file.
+func BenchmarkTouchLogger1M(b *testing.B) {
+	p := bigProject()
+	fp := Touch(p, nil, "s1", t0)
+	b.ReportAllocs()
+	for i := 0; b.Loop(); i++ {
+		p.Tests[0].Readings[0].DepthText = strconv.Itoa(i)
+		fp = Touch(p, fp, "s1", t0)
 	}
 }
